@@ -1,0 +1,117 @@
+import { randomUUID } from 'node:crypto';
+import { existsSync } from 'node:fs';
+import path from 'node:path';
+import connectPgSimple from 'connect-pg-simple';
+import express, { type Express } from 'express';
+import session from 'express-session';
+import helmet from 'helmet';
+import type pg from 'pg';
+import type { Sequelize } from 'sequelize';
+import type { Config } from './config.js';
+import { authRouter } from './features/auth/auth.routes.js';
+import { labRouter } from './features/lab/lab.routes.js';
+import { findActiveUser } from './features/people/people.service.js';
+import { peopleRouter } from './features/people/people.routes.js';
+import { loadSessionUser } from './lib/auth.js';
+import { requireCsrfToken } from './lib/csrf.js';
+import { apiNotFound, errorHandler } from './lib/error-handler.js';
+
+export interface AppDeps {
+  config: Config;
+  sequelize: Sequelize;
+  /** node-postgres pool of the session store. */
+  sessionPool: pg.Pool;
+}
+
+export const SESSION_COOKIE = 'skewbench.sid';
+
+/** Build the Express app (API and, when built, the client). Listening is the caller's business. */
+export function createApp({ config, sequelize, sessionPool }: AppDeps): Express {
+  const app = express();
+  app.disable('x-powered-by');
+  if (config.trustProxy) app.set('trust proxy', config.trustProxy);
+
+  const https = config.publicUrl.startsWith('https://');
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        useDefaults: false,
+        directives: {
+          'default-src': ["'self'"],
+          'script-src': ["'self'"],
+          // FullCalendar and React inline style attributes; no inline scripts anywhere.
+          'style-src': ["'self'", "'unsafe-inline'"],
+          'img-src': ["'self'", 'data:', 'blob:'],
+          'font-src': ["'self'"],
+          'connect-src': ["'self'"],
+          'object-src': ["'none'"],
+          'base-uri': ["'self'"],
+          'form-action': ["'self'"],
+          'frame-ancestors': ["'none'"],
+          ...(https ? { 'upgrade-insecure-requests': [] } : {}),
+        },
+      },
+      strictTransportSecurity: https,
+    }),
+  );
+
+  app.use((_req, res, next) => {
+    res.locals.requestId = randomUUID();
+    next();
+  });
+
+  // Health answers without a session, so it works while the session store is down.
+  app.get('/api/health', async (_req, res) => {
+    try {
+      await sequelize.query('SELECT 1');
+      res.json({ status: 'ok', db: 'ok' });
+    } catch {
+      res.status(503).json({
+        status: 'unavailable',
+        db: 'down',
+        error: { code: 'db_unavailable', message: 'The database is not reachable right now.' },
+      });
+    }
+  });
+
+  const PgStore = connectPgSimple(session);
+  app.use(
+    '/api',
+    express.json({ limit: '1mb' }),
+    session({
+      name: SESSION_COOKIE,
+      secret: config.sessionSecret,
+      store: new PgStore({ pool: sessionPool, tableName: 'sessions', pruneSessionInterval: 15 * 60 }),
+      resave: false,
+      saveUninitialized: false,
+      rolling: true,
+      cookie: {
+        httpOnly: true,
+        sameSite: 'lax',
+        secure: config.env === 'production' ? 'auto' : false,
+        maxAge: 12 * 60 * 60 * 1000,
+      },
+    }),
+    loadSessionUser(findActiveUser),
+    requireCsrfToken,
+  );
+
+  app.use('/api/auth', authRouter({ signInAttempts: config.signInAttempts }));
+  app.use('/api/users', peopleRouter());
+  app.use('/api/lab', labRouter(config.lab));
+  app.use('/api', apiNotFound);
+
+  // The built client: hashed assets cached for long, index.html never, every other path is the SPA.
+  const dist = path.resolve(config.clientDist);
+  if (existsSync(path.join(dist, 'index.html'))) {
+    app.use('/assets', express.static(path.join(dist, 'assets'), { immutable: true, maxAge: '1y', fallthrough: false }));
+    app.use(express.static(dist, { index: false, maxAge: '1h' }));
+    app.get('/{*splat}', (_req, res) => {
+      res.setHeader('Cache-Control', 'no-cache');
+      res.sendFile(path.join(dist, 'index.html'));
+    });
+  }
+
+  app.use(errorHandler);
+  return app;
+}

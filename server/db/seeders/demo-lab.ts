@@ -1,0 +1,32 @@
+import type { Role } from '../../../shared/domain/roles.js';
+import { UserModel } from '../../features/people/user.model.js';
+import { hashPassword } from '../../features/people/people.service.js';
+
+/**
+ * The demo lab: an invented university's microwave circuits lab with invented people.
+ * Accounts are a contract of the README and the tests: keep their e-mails and roles.
+ */
+export const demoAccounts: { email: string; name: string; role: Role }[] = [
+  { email: 'manager@lab.test', name: 'Ilse Marwood', role: 'manager' },
+  { email: 'researcher@lab.test', name: 'Tobiah Renwick', role: 'researcher' },
+  { email: 'researcher2@lab.test', name: 'Sunniva Okoro-Vale', role: 'researcher' },
+  { email: 'visitor@lab.test', name: 'Pell Hartigan', role: 'visitor' },
+];
+
+/** Seed the demo lab when the database has no users yet; returns whether it seeded. Safe to run again. */
+export async function seedDemoLab(password: string): Promise<boolean> {
+  if ((await UserModel.count()) > 0) return false;
+  const passwordHash = await hashPassword(password);
+  await UserModel.bulkCreate(
+    demoAccounts.map((a) => ({ ...a, passwordHash })),
+    { ignoreDuplicates: true },
+  );
+  return true;
+}
+
+/** The demo accounts that exist and are active, for the start-up banner. */
+export async function activeDemoAccounts(): Promise<{ email: string; role: Role }[]> {
+  const rows = await UserModel.findAll({ where: { email: demoAccounts.map((a) => a.email), active: true } });
+  const byEmail = new Map(rows.map((r) => [r.email, r]));
+  return demoAccounts.filter((a) => byEmail.has(a.email)).map((a) => ({ email: a.email, role: byEmail.get(a.email)!.role }));
+}

@@ -1,0 +1,44 @@
+// Boot: read the config, check the database, listen; stop cleanly on SIGINT/SIGTERM.
+import { createApp } from './app.js';
+import { loadConfig } from './config.js';
+import { connectDatabase } from './db/connect.js';
+import { activeDemoAccounts } from './db/seeders/demo-lab.js';
+import { logger, setLogLevel } from './lib/logger.js';
+
+const config = loadConfig();
+setLogLevel(config.logLevel);
+const db = connectDatabase(config);
+await db.sequelize.authenticate();
+
+const app = createApp({ config, sequelize: db.sequelize, sessionPool: db.sessionPool });
+const server = app.listen(config.port, config.host, async () => {
+  const address = server.address();
+  const port = typeof address === 'object' && address ? address.port : config.port;
+  const lines = [`Skewbench is running at http://${config.host}:${port}  (${config.lab.name})`];
+  if (process.env.SKEWBENCH_SHOW_DEMO === '1') {
+    const accounts = await activeDemoAccounts();
+    if (accounts.length) {
+      lines.push(`Demo accounts (password "${config.demoPassword}" unless changed):`);
+      for (const a of accounts) lines.push(`  ${a.role.padEnd(10)} ${a.email}`);
+    }
+  }
+  lines.push('Press Ctrl-C to stop.');
+  console.log(lines.join('\n'));
+});
+
+let stopping = false;
+async function stop(signal: string) {
+  if (stopping) return;
+  stopping = true;
+  logger.info(`${signal}: stopping the web server`);
+  server.close();
+  server.closeAllConnections();
+  await db.close();
+  process.exit(0);
+}
+process.on('SIGINT', () => void stop('SIGINT'));
+process.on('SIGTERM', () => void stop('SIGTERM'));
+process.on('unhandledRejection', (reason) => {
+  logger.error('unhandled rejection, exiting', reason);
+  process.exit(1);
+});

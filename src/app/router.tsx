@@ -1,0 +1,57 @@
+import { createBrowserRouter, redirect, RouterProvider, type LoaderFunctionArgs } from 'react-router-dom';
+import { hasRole, type Role } from '@shared/domain/roles';
+import { meOptions } from '@/features/auth/api/auth.queries';
+import { AppShell } from './routes/app-shell';
+import { RouteError } from './routes/route-error';
+import { queryClient } from './query';
+
+/** Loader for signed-in pages: unknown session → sign-in page (remembering where the user was going). */
+async function requireSignedIn({ request }: LoaderFunctionArgs) {
+  const user = await queryClient.ensureQueryData(meOptions());
+  if (!user) {
+    const url = new URL(request.url);
+    throw redirect(`/sign-in?next=${encodeURIComponent(url.pathname + url.search)}`);
+  }
+  return null;
+}
+
+function requireRoleLoader(minimum: Role) {
+  return async () => {
+    const user = await queryClient.ensureQueryData(meOptions());
+    if (!user) throw redirect('/sign-in');
+    if (!hasRole(user.role, minimum)) throw new Response('This page is for lab managers.', { status: 403 });
+    return null;
+  };
+}
+
+const router = createBrowserRouter([
+  {
+    path: '/sign-in',
+    lazy: async () => ({ Component: (await import('./routes/sign-in')).SignInRoute }),
+    errorElement: <RouteError />,
+  },
+  {
+    path: '/',
+    element: <AppShell />,
+    loader: requireSignedIn,
+    errorElement: <RouteError />,
+    children: [
+      {
+        errorElement: <RouteError />,
+        children: [
+          { index: true, lazy: async () => ({ Component: (await import('./routes/overview')).OverviewRoute }) },
+          {
+            path: 'people',
+            loader: requireRoleLoader('manager'),
+            lazy: async () => ({ Component: (await import('./routes/people')).PeopleRoute }),
+          },
+          { path: '*', lazy: async () => ({ Component: (await import('./routes/not-found')).NotFoundRoute }) },
+        ],
+      },
+    ],
+  },
+]);
+
+export function AppRouter() {
+  return <RouterProvider router={router} />;
+}
