@@ -22,6 +22,7 @@ export default defineConfig({
   test: {
     include: ['tests/**/*.test.ts'],
     globalSetup: ['tests/support/global-setup.ts'],
+    setupFiles: ['tests/support/quiet-logs.ts'],
     testTimeout: 30_000,
     hookTimeout: 90_000,
     pool: 'forks',

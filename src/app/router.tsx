@@ -5,21 +5,25 @@ import { AppShell } from './routes/app-shell';
 import { RouteError } from './routes/route-error';
 import { queryClient } from './query';
 
-/** Loader for signed-in pages: unknown session → sign-in page (remembering where the user was going). */
-async function requireSignedIn({ request }: LoaderFunctionArgs) {
+/** The signed-in user; without one, off to the sign-in page, remembering where the user was going. */
+async function signedInUser(request: Request) {
   const user = await queryClient.ensureQueryData(meOptions());
   if (!user) {
     const url = new URL(request.url);
     throw redirect(`/sign-in?next=${encodeURIComponent(url.pathname + url.search)}`);
   }
+  return user;
+}
+
+async function requireSignedIn({ request }: LoaderFunctionArgs) {
+  await signedInUser(request);
   return null;
 }
 
-function requireRoleLoader(minimum: Role) {
-  return async () => {
-    const user = await queryClient.ensureQueryData(meOptions());
-    if (!user) throw redirect('/sign-in');
-    if (!hasRole(user.role, minimum)) throw new Response('This page is for lab managers.', { status: 403 });
+function requireRoleLoader(minimum: Role, message: string) {
+  return async ({ request }: LoaderFunctionArgs) => {
+    const user = await signedInUser(request);
+    if (!hasRole(user.role, minimum)) throw new Response(message, { status: 403 });
     return null;
   };
 }
@@ -42,7 +46,7 @@ const router = createBrowserRouter([
           { index: true, lazy: async () => ({ Component: (await import('./routes/overview')).OverviewRoute }) },
           {
             path: 'people',
-            loader: requireRoleLoader('manager'),
+            loader: requireRoleLoader('manager', 'The People page is for lab managers.'),
             lazy: async () => ({ Component: (await import('./routes/people')).PeopleRoute }),
           },
           { path: '*', lazy: async () => ({ Component: (await import('./routes/not-found')).NotFoundRoute }) },

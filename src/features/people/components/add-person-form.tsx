@@ -1,4 +1,5 @@
 import { zodResolver } from '@hookform/resolvers/zod';
+import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { roleLabels, roles } from '@shared/domain/roles';
 import { createUserInputSchema, type User } from '@shared/schemas/people';
@@ -7,7 +8,6 @@ import { Notice, Panel } from '@/components/ui/feedback';
 import { SelectField, TextField } from '@/components/ui/field';
 import { ApiError } from '@/lib/api-client';
 import { useCreatePerson } from '../api/people.mutations';
-import { useState } from 'react';
 
 type FormField = 'email' | 'name' | 'role' | 'password';
 const formFields: FormField[] = ['email', 'name', 'role', 'password'];
@@ -20,7 +20,8 @@ export function AddPersonForm() {
     defaultValues: { email: '', name: '', role: 'researcher' as const, password: '' },
   });
 
-  const submit = handleSubmit((values) =>
+  const submit = handleSubmit((values) => {
+    setCreated(null);
     create.mutate(values, {
       onSuccess: ({ user }) => {
         setCreated(user);
@@ -33,8 +34,8 @@ export function AddPersonForm() {
           }
         }
       },
-    }),
-  );
+    });
+  });
 
   const errors = formState.errors;
   const generalError = create.error instanceof ApiError && create.error.fieldIssues.length ? null : create.error;

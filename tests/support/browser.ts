@@ -1,0 +1,56 @@
+import { existsSync, mkdirSync } from 'node:fs';
+import type { AddressInfo } from 'node:net';
+import type { Server } from 'node:http';
+import path from 'node:path';
+import { chromium, type Browser, type Page } from 'playwright-core';
+import { startTestApp, DEMO_PASSWORD, type TestApp } from './test-app.js';
+
+const root = path.resolve(import.meta.dirname, '..', '..');
+export const artifacts = path.join(root, 'tests', 'artifacts');
+
+/** Debian's chromium, headless, with the flags this machine's closed network needs. */
+export function launchBrowser(): Promise<Browser> {
+  return chromium.launch({
+    executablePath: '/usr/bin/chromium',
+    headless: true,
+    args: ['--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
+  });
+}
+
+export interface LiveApp extends TestApp {
+  url: string;
+  server: Server;
+}
+
+/** The real app, built client included, listening on a free loopback port. */
+export async function startLiveApp(): Promise<LiveApp> {
+  const dist = path.join(root, 'dist');
+  if (!existsSync(path.join(dist, 'index.html'))) throw new Error('dist/ is missing: `npm test` builds the client first.');
+  const t = await startTestApp({ CLIENT_DIST: dist });
+  const server = await new Promise<Server>((resolve) => {
+    const s = t.app.listen(0, '127.0.0.1', () => resolve(s));
+  });
+  const { port } = server.address() as AddressInfo;
+  return {
+    ...t,
+    server,
+    url: `http://127.0.0.1:${port}`,
+    close: async () => {
+      server.closeAllConnections();
+      await new Promise((r) => server.close(r));
+      await t.close();
+    },
+  };
+}
+
+export async function signInThroughForm(page: Page, url: string, email: string, password = DEMO_PASSWORD) {
+  await page.goto(`${url}/`);
+  await page.getByLabel('E-mail').fill(email);
+  await page.getByLabel('Password').fill(password);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+}
+
+export async function screenshot(page: Page, name: string) {
+  mkdirSync(artifacts, { recursive: true });
+  await page.screenshot({ path: path.join(artifacts, `${name}.png`), fullPage: true });
+}
