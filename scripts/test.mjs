@@ -18,7 +18,9 @@ let code = 1;
 try {
   cluster.init();
   cluster.start();
-  buildClient();
+  // The tests' own build, so a running `npm start` or a second test run never sees a half-written dist/.
+  const clientDist = path.join(temp, 'dist');
+  buildClient(clientDist);
   step('running the test suites (vitest)…');
   const env = {
     ...process.env,
@@ -27,6 +29,7 @@ try {
     TEST_PGPORT: String(cluster.port),
     TEST_PGUSER: cluster.user,
     TEST_PGPASSWORD: cluster.password,
+    TEST_CLIENT_DIST: clientDist,
   };
   const vitest = launch(path.join(root, 'node_modules', '.bin', 'vitest'), ['run', ...process.argv.slice(2)], { env });
   const stop = () => vitest.kill('SIGTERM');

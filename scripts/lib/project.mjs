@@ -42,9 +42,10 @@ export async function preparePrivateDatabase() {
   return { env, cluster };
 }
 
-export function buildClient() {
-  step('building the client (vite build)…');
-  run(bin('vite'), ['build', '--logLevel', 'warn']);
+/** vite build into `outDir` (default dist/, which the server serves). */
+export function buildClient(outDir = 'dist') {
+  step(`building the client (vite build → ${outDir})…`);
+  run(bin('vite'), ['build', '--logLevel', 'warn', '--outDir', outDir, '--emptyOutDir']);
 }
 
 export function buildServer() {

@@ -24,8 +24,8 @@ export interface LiveApp extends TestApp {
 
 /** The real app, built client included, listening on a free loopback port. */
 export async function startLiveApp(): Promise<LiveApp> {
-  const dist = path.join(root, 'dist');
-  if (!existsSync(path.join(dist, 'index.html'))) throw new Error('dist/ is missing: `npm test` builds the client first.');
+  const dist = process.env.TEST_CLIENT_DIST ?? '';
+  if (!existsSync(path.join(dist, 'index.html'))) throw new Error('The built client is missing: `npm test` builds it first.');
   const t = await startTestApp({ CLIENT_DIST: dist });
   const server = await new Promise<Server>((resolve) => {
     const s = t.app.listen(0, '127.0.0.1', () => resolve(s));
