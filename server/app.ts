@@ -9,9 +9,12 @@ import type pg from 'pg';
 import type { Sequelize } from 'sequelize';
 import type { Config } from './config.js';
 import { authRouter } from './features/auth/auth.routes.js';
+import { instrumentsRouter } from './features/instruments/instruments.routes.js';
 import { labRouter } from './features/lab/lab.routes.js';
 import { findActiveUser } from './features/people/people.service.js';
 import { peopleRouter } from './features/people/people.routes.js';
+import { photosRouter } from './features/photos/photos.routes.js';
+import { partsRouter } from './features/parts/parts.routes.js';
 import { loadSessionUser } from './lib/auth.js';
 import { requireCsrfToken } from './lib/csrf.js';
 import { apiNotFound, errorHandler } from './lib/error-handler.js';
@@ -98,7 +101,10 @@ export function createApp({ config, sequelize, sessionPool }: AppDeps): Express 
 
   app.use('/api/auth', authRouter({ signInAttempts: config.signInAttempts }));
   app.use('/api/users', peopleRouter());
-  app.use('/api/lab', labRouter(config.lab));
+  app.use('/api/lab', labRouter({ ...config.lab, publicUrl: config.publicUrl }));
+  app.use('/api/instruments', instrumentsRouter({ timeZone: config.lab.timeZone }));
+  app.use('/api/parts', partsRouter());
+  app.use('/api/photos', photosRouter(config.uploads));
   app.use('/api', apiNotFound);
 
   // The built client: hashed assets cached for long, index.html never, every other path is the SPA.

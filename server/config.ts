@@ -20,6 +20,9 @@ const envSchema = z.object({
   DEMO_PASSWORD: z.string().min(10).default('skewbench-demo'),
   CLIENT_DIST: z.string().default('dist'),
   LOG_LEVEL: z.enum(['debug', 'info', 'warn', 'error', 'silent']).default('info'),
+  UPLOADS_DIR: z.string().min(1).default('uploads'),
+  PHOTO_MAX_BYTES: z.coerce.number().int().positive().default(15 * 1024 * 1024),
+  PHOTO_MAX_PIXELS: z.coerce.number().int().positive().default(50_000_000),
 });
 
 export interface DbConfig {
@@ -29,6 +32,14 @@ export interface DbConfig {
   user: string;
   password: string;
   database: string;
+}
+
+export interface UploadsConfig {
+  dir: string;
+  /** Largest accepted upload, bytes. */
+  maxPhotoBytes: number;
+  /** Largest accepted image, width × height as its header states (against decompression bombs). */
+  maxPhotoPixels: number;
 }
 
 export interface Config {
@@ -44,6 +55,8 @@ export interface Config {
   demoPassword: string;
   clientDist: string;
   logLevel: 'debug' | 'info' | 'warn' | 'error' | 'silent';
+  /** Uploaded files: the folder (relative to the working directory unless absolute) and the photo limits. */
+  uploads: UploadsConfig;
 }
 
 export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
@@ -81,5 +94,6 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     demoPassword: e.DEMO_PASSWORD,
     clientDist: e.CLIENT_DIST,
     logLevel: e.LOG_LEVEL,
+    uploads: { dir: e.UPLOADS_DIR, maxPhotoBytes: e.PHOTO_MAX_BYTES, maxPhotoPixels: e.PHOTO_MAX_PIXELS },
   };
 }

@@ -11,11 +11,15 @@ export const errorCodes = [
   'not_found',
   'conflict',
   'email_taken',
+  'tag_taken',
+  'invalid_csv',
   'last_manager',
   'payload_too_large',
   'rate_limited',
   'db_unavailable',
   'internal',
+  'invalid_image',
+  'image_too_large',
 ] as const;
 export type ErrorCode = (typeof errorCodes)[number];
 

@@ -4,6 +4,7 @@ import { setLogLevel } from '../lib/logger.js';
 import { connectDatabase } from './connect.js';
 import { migrate } from './migrator.js';
 import { seedDemoLab } from './seeders/demo-lab.js';
+import { labToday } from '../features/instruments/instruments.service.js';
 
 const command = process.argv[2];
 const config = loadConfig();
@@ -14,7 +15,7 @@ try {
     const applied = await migrate(db.sequelize);
     console.log(applied.length ? `applied migrations: ${applied.join(', ')}` : 'database schema is up to date');
   } else if (command === 'seed') {
-    const seeded = await seedDemoLab(config.demoPassword);
+    const seeded = await seedDemoLab(config.demoPassword, labToday(config.lab.timeZone));
     console.log(seeded ? 'seeded the demo lab' : 'database already holds data: demo lab not re-seeded');
   } else {
     console.error('usage: cli.ts migrate|seed');

@@ -1,7 +1,16 @@
 import type { Sequelize } from 'sequelize';
+import { InstrumentModel, QualificationModel } from '../features/instruments/instrument.model.js';
+import { PartModel } from '../features/parts/part.model.js';
 import { UserModel } from '../features/people/user.model.js';
+import { PhotoModel } from '../features/photos/photo.model.js';
 
 /** Register every feature's model on the instance, then wire associations once all exist. */
 export function initModels(sequelize: Sequelize): void {
   UserModel.initModel(sequelize);
+  InstrumentModel.initModel(sequelize);
+  QualificationModel.initModel(sequelize);
+  PartModel.initModel(sequelize);
+  PhotoModel.initModel(sequelize);
+  // The photos service reads the uploader's name through `owner`, without importing the user model.
+  PhotoModel.belongsTo(UserModel, { as: 'owner', foreignKey: 'ownerId' });
 }

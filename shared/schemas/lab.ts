@@ -4,6 +4,8 @@ import { z } from 'zod';
 export const labInfoSchema = z.object({
   name: z.string(),
   timeZone: z.string(),
+  /** The address people use to reach Skewbench (QR labels point here). */
+  publicUrl: z.string(),
 });
 export type LabInfo = z.infer<typeof labInfoSchema>;
 

@@ -34,29 +34,29 @@ const connectorSchema = z.enum(connectors, { error: 'Choose SMA, 2.92 mm, 3.5 mm
 const partFields = z.strictObject({
   tag: tagSchema,
   kind: z.enum(partKinds, { error: 'Choose cable, attenuator, adapter, splitter, dc-block or other' }),
-  description: z.string().trim().max(200, { error: 'Description must be at most 200 characters' }).default(''),
+  description: z.string().trim().max(200, { error: 'Description must be at most 200 characters' }).optional(),
   connectorA: connectorSchema,
   connectorB: connectorSchema,
-  status: z.enum(partStatuses, { error: 'Choose ok, damaged or lost' }).default('ok'),
-  notes: notesSchema.default(''),
+  status: z.enum(partStatuses, { error: 'Choose ok, damaged or lost' }).optional(),
+  notes: notesSchema.optional(),
   // cable
-  lengthMm: num('Length').positive({ error: 'Length must be above 0 mm' }).max(1e6, { error: 'Length must be at most 1000 m' }).nullable().default(null),
-  dielectric: z.enum(dielectrics, { error: 'Choose PTFE, solid PE, foamed PE, air or other' }).nullable().default(null),
+  lengthMm: num('Length').positive({ error: 'Length must be above 0 mm' }).max(1e6, { error: 'Length must be at most 1000 m' }).nullable().optional(),
+  dielectric: z.enum(dielectrics, { error: 'Choose PTFE, solid PE, foamed PE, air or other' }).nullable().optional(),
   /** Datasheet velocity factor; wins over the dielectric's nominal value. */
-  velocityFactor: num('Velocity factor').gt(0, { error: 'Velocity factor must be above 0' }).max(1, { error: 'Velocity factor must be at most 1' }).nullable().default(null),
-  lossDbPerM: num('Loss per metre').min(0, { error: 'Loss per metre cannot be negative' }).max(100, { error: 'Loss per metre must be at most 100 dB/m' }).nullable().default(null),
-  lossRefHz: frequencyHzSchema('Loss reference frequency').nullable().default(null),
-  measuredDelayPs: num('Measured delay').positive({ error: 'Measured delay must be above 0 ps' }).max(1e9, { error: 'Measured delay is too large' }).nullable().default(null),
-  measuredOn: isoDateSchema.nullable().default(null),
-  measuredHow: z.string().trim().max(200, { error: 'At most 200 characters' }).nullable().default(null),
+  velocityFactor: num('Velocity factor').gt(0, { error: 'Velocity factor must be above 0' }).max(1, { error: 'Velocity factor must be at most 1' }).nullable().optional(),
+  lossDbPerM: num('Loss per metre').min(0, { error: 'Loss per metre cannot be negative' }).max(100, { error: 'Loss per metre must be at most 100 dB/m' }).nullable().optional(),
+  lossRefHz: frequencyHzSchema('Loss reference frequency').nullable().optional(),
+  measuredDelayPs: num('Measured delay').positive({ error: 'Measured delay must be above 0 ps' }).max(1e9, { error: 'Measured delay is too large' }).nullable().optional(),
+  measuredOn: isoDateSchema.nullable().optional(),
+  measuredHow: z.string().trim().max(200, { error: 'At most 200 characters' }).nullable().optional(),
   // attenuator (nominal attenuation), adapter, dc-block, splitter (per branch), other
-  lossDb: num('Loss').min(0, { error: 'Loss cannot be negative' }).max(200, { error: 'Loss must be at most 200 dB' }).nullable().default(null),
+  lossDb: num('Loss').min(0, { error: 'Loss cannot be negative' }).max(200, { error: 'Loss must be at most 200 dB' }).nullable().optional(),
   // adapter, dc-block, other: an entered delay (cables compute theirs)
-  delayPs: num('Delay').min(0, { error: 'Delay cannot be negative' }).max(1e9, { error: 'Delay is too large' }).nullable().default(null),
+  delayPs: num('Delay').min(0, { error: 'Delay cannot be negative' }).max(1e9, { error: 'Delay is too large' }).nullable().optional(),
   // attenuator
-  maxInputDbm: num('Maximum input power').min(-50, { error: 'Maximum input power must be at least −50 dBm' }).max(80, { error: 'Maximum input power must be at most +80 dBm' }).nullable().default(null),
-  minFrequencyHz: frequencyHzSchema('Lowest frequency').nullable().default(null),
-  maxFrequencyHz: frequencyHzSchema('Highest frequency').nullable().default(null),
+  maxInputDbm: num('Maximum input power').min(-50, { error: 'Maximum input power must be at least −50 dBm' }).max(80, { error: 'Maximum input power must be at most +80 dBm' }).nullable().optional(),
+  minFrequencyHz: frequencyHzSchema('Lowest frequency').nullable().optional(),
+  maxFrequencyHz: frequencyHzSchema('Highest frequency').nullable().optional(),
 });
 
 type PartShape = z.output<typeof partFields>;
@@ -76,13 +76,35 @@ function kindRules(value: Partial<PartShape>, ctx: z.RefinementCtx) {
   if (frequencyRangeIssue(value.minFrequencyHz, value.maxFrequencyHz)) issue('maxFrequencyHz', 'Highest frequency must not be below the lowest');
 }
 
-export const partInputSchema = partFields.superRefine(kindRules);
+/** Values of the optional fields when a new part leaves them out. */
+export const partDefaults = {
+  description: '',
+  status: 'ok',
+  notes: '',
+  lengthMm: null,
+  dielectric: null,
+  velocityFactor: null,
+  lossDbPerM: null,
+  lossRefHz: null,
+  measuredDelayPs: null,
+  measuredOn: null,
+  measuredHow: null,
+  lossDb: null,
+  delayPs: null,
+  maxInputDbm: null,
+  minFrequencyHz: null,
+  maxFrequencyHz: null,
+} as const;
+
+/** A whole part (create, CSV row, or a stored record merged with a change); output has every field. */
+export const partInputSchema = partFields.superRefine(kindRules).transform((v) => ({ ...partDefaults, ...v }));
 export type PartInput = z.input<typeof partInputSchema>;
 export type PartValues = z.output<typeof partInputSchema>;
 
+/** PATCH: any subset, without defaults; the server merges it with the stored part and validates the whole. */
 export const partPatchSchema = partFields.partial().refine((v) => Object.keys(v).length > 0, { error: 'Give at least one field to change' });
 
-export const partSchema = partFields.extend({
+export const partSchema = partFields.required().extend({
   id: z.number(),
   /** For cables: the measured delay where recorded, else L/(VF·c); for other kinds: the entered delay. */
   delayPs: z.number().nullable(),

@@ -44,6 +44,35 @@ const router = createBrowserRouter([
         errorElement: <RouteError />,
         children: [
           { index: true, lazy: async () => ({ Component: (await import('./routes/overview')).OverviewRoute }) },
+          { path: 'instruments', lazy: async () => ({ Component: (await import('./routes/instruments')).InstrumentsRoute }) },
+          {
+            path: 'instruments/new',
+            loader: requireRoleLoader('manager', 'Only lab managers add instruments.'),
+            lazy: async () => ({ Component: (await import('./routes/instrument-edit')).InstrumentEditRoute }),
+          },
+          { path: 'instruments/:id', lazy: async () => ({ Component: (await import('./routes/instrument-detail')).InstrumentDetailRoute }) },
+          {
+            path: 'instruments/:id/edit',
+            loader: requireRoleLoader('manager', 'Only lab managers edit instruments.'),
+            lazy: async () => ({ Component: (await import('./routes/instrument-edit')).InstrumentEditRoute }),
+          },
+          { path: 'parts', lazy: async () => ({ Component: (await import('./routes/parts')).PartsRoute }) },
+          {
+            path: 'parts/new',
+            loader: requireRoleLoader('manager', 'Only lab managers add parts.'),
+            lazy: async () => ({ Component: (await import('./routes/part-edit')).PartEditRoute }),
+          },
+          { path: 'parts/:id', lazy: async () => ({ Component: (await import('./routes/part-detail')).PartDetailRoute }) },
+          {
+            path: 'parts/:id/edit',
+            loader: requireRoleLoader('manager', 'Only lab managers edit parts.'),
+            lazy: async () => ({ Component: (await import('./routes/part-edit')).PartEditRoute }),
+          },
+          {
+            path: 'labels',
+            loader: requireRoleLoader('manager', 'Only lab managers print labels.'),
+            lazy: async () => ({ Component: (await import('./routes/labels')).LabelsRoute }),
+          },
           {
             path: 'people',
             loader: requireRoleLoader('manager', 'The People page is for lab managers.'),

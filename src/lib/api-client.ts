@@ -34,19 +34,37 @@ export function resetCsrfToken(): void {
   csrfToken = null;
 }
 
+/** The session's CSRF token, fetched once; a failed fetch is forgotten so the next write tries again. */
+async function currentCsrfToken(): Promise<string> {
+  csrfToken ??= fetchCsrfToken();
+  try {
+    return await csrfToken;
+  } catch (err) {
+    csrfToken = null;
+    throw err;
+  }
+}
+
 async function toApiError(res: Response): Promise<ApiError> {
-  const body = await res.json().catch(() => null);
+  return errorFromBody(res.status, res.statusText, await res.json().catch(() => null));
+}
+
+function errorFromBody(status: number, statusText: string, body: unknown): ApiError {
   const parsed = apiErrorBodySchema.safeParse(body);
   if (parsed.success) {
     const { code, message, details } = parsed.data.error;
-    return new ApiError(res.status, code, message, details);
+    return new ApiError(status, code, message, details);
   }
-  return new ApiError(res.status, res.status === 503 ? 'db_unavailable' : 'internal', `The server answered ${res.status} ${res.statusText}.`);
+  return new ApiError(status, status === 503 ? 'db_unavailable' : 'internal', `The server answered ${status} ${statusText}.`);
 }
+
+const networkError = () => new ApiError(0, 'network', 'Skewbench cannot reach its server. Check the connection and try again.');
 
 interface RequestOptions<T> {
   method?: 'GET' | 'POST' | 'PATCH' | 'PUT' | 'DELETE';
   body?: unknown;
+  /** A non-JSON body, e.g. a CSV file. */
+  rawBody?: { contentType: string; text: string };
   /** When given, the response is parsed with it, so a contract drift fails loudly here. */
   schema?: z.ZodType<T>;
   signal?: AbortSignal;
@@ -58,27 +76,20 @@ export async function api<T = unknown>(path: string, options: RequestOptions<T> 
   const send = async () => {
     const headers: Record<string, string> = { accept: 'application/json' };
     if (options.body !== undefined) headers['content-type'] = 'application/json';
-    if (method !== 'GET') {
-      csrfToken ??= fetchCsrfToken();
-      try {
-        headers['x-csrf-token'] = await csrfToken;
-      } catch (err) {
-        csrfToken = null;
-        throw err;
-      }
-    }
+    if (options.rawBody) headers['content-type'] = options.rawBody.contentType;
+    if (method !== 'GET') headers['x-csrf-token'] = await currentCsrfToken();
     let res: Response;
     try {
       res = await fetch(`/api${path}`, {
         method,
         headers,
         credentials: 'same-origin',
-        body: options.body === undefined ? undefined : JSON.stringify(options.body),
+        body: options.rawBody ? options.rawBody.text : options.body === undefined ? undefined : JSON.stringify(options.body),
         signal: options.signal,
       });
     } catch (err) {
       if ((err as Error).name === 'AbortError') throw err;
-      throw new ApiError(0, 'network', 'Skewbench cannot reach its server. Check the connection and try again.');
+      throw networkError();
     }
     return res;
   };
@@ -96,4 +107,57 @@ export async function api<T = unknown>(path: string, options: RequestOptions<T> 
   if (res.status === 204) return undefined as T;
   const data: unknown = await res.json();
   return options.schema ? options.schema.parse(data) : (data as T);
+}
+
+interface UploadOptions<T> {
+  schema?: z.ZodType<T>;
+  /** Called as the body goes out, with the fraction sent (0…1). */
+  onProgress?: (fraction: number) => void;
+  signal?: AbortSignal;
+}
+
+interface XhrAnswer {
+  status: number;
+  statusText: string;
+  body: unknown;
+}
+
+/**
+ * POST a multipart form, reporting upload progress. XMLHttpRequest, because fetch cannot report how much
+ * of a request body has been sent. Same cookies, CSRF token (renewed once on csrf_invalid) and ApiError as api().
+ */
+export async function upload<T = unknown>(path: string, form: FormData, options: UploadOptions<T> = {}): Promise<T> {
+  const send = async (): Promise<XhrAnswer> => {
+    const token = await currentCsrfToken();
+    return new Promise((resolve, reject) => {
+      const xhr = new XMLHttpRequest();
+      xhr.open('POST', `/api${path}`);
+      xhr.setRequestHeader('accept', 'application/json');
+      xhr.setRequestHeader('x-csrf-token', token);
+      xhr.upload.onprogress = (event) => {
+        if (event.lengthComputable) options.onProgress?.(event.loaded / event.total);
+      };
+      xhr.onload = () => {
+        let body: unknown = null;
+        try {
+          body = xhr.responseText ? JSON.parse(xhr.responseText) : null;
+        } catch {
+          body = null;
+        }
+        resolve({ status: xhr.status, statusText: xhr.statusText, body });
+      };
+      xhr.onerror = () => reject(networkError());
+      xhr.onabort = () => reject(new DOMException('The upload was cancelled.', 'AbortError'));
+      options.signal?.addEventListener('abort', () => xhr.abort(), { once: true });
+      xhr.send(form);
+    });
+  };
+
+  let answer = await send();
+  if (answer.status === 403 && errorFromBody(403, '', answer.body).code === 'csrf_invalid') {
+    csrfToken = null;
+    answer = await send();
+  }
+  if (answer.status < 200 || answer.status >= 300) throw errorFromBody(answer.status, answer.statusText, answer.body);
+  return options.schema ? options.schema.parse(answer.body) : (answer.body as T);
 }

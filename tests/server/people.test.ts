@@ -132,6 +132,6 @@ describe('PATCH /api/users/:id', () => {
 describe('GET /api/lab', () => {
   it('tells anyone the lab name and time zone', async () => {
     const res = await request(t.app).get('/api/lab').expect(200);
-    expect(res.body).toEqual({ name: t.config.lab.name, timeZone: t.config.lab.timeZone });
+    expect(res.body).toEqual({ name: t.config.lab.name, timeZone: t.config.lab.timeZone, publicUrl: t.config.publicUrl });
   });
 });

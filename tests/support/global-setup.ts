@@ -4,6 +4,7 @@ import pg from 'pg';
 import { connectDatabase } from '../../server/db/connect.js';
 import { migrate } from '../../server/db/migrator.js';
 import { seedDemoLab } from '../../server/db/seeders/demo-lab.js';
+import { labToday } from '../../server/features/instruments/instruments.service.js';
 import { setLogLevel } from '../../server/lib/logger.js';
 import { TEMPLATE_DB, testCluster, testConfig } from './test-env.js';
 
@@ -18,6 +19,6 @@ export default async function setup() {
   const config = testConfig(TEMPLATE_DB);
   const db = connectDatabase(config);
   await migrate(db.sequelize);
-  await seedDemoLab(config.demoPassword);
+  await seedDemoLab(config.demoPassword, labToday(config.lab.timeZone));
   await db.close();
 }

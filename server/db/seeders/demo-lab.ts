@@ -1,6 +1,7 @@
 import type { Role } from '../../../shared/domain/roles.js';
 import { UserModel } from '../../features/people/user.model.js';
 import { hashPassword } from '../../features/people/people.service.js';
+import { seedDemoInventory } from './demo-inventory.js';
 
 /**
  * The demo lab: an invented university's microwave circuits lab with invented people.
@@ -13,14 +14,19 @@ export const demoAccounts: { email: string; name: string; role: Role }[] = [
   { email: 'visitor@lab.test', name: 'Pell Hartigan', role: 'visitor' },
 ];
 
-/** Seed the demo lab when the database has no users yet; returns whether it seeded. Safe to run again. */
-export async function seedDemoLab(password: string): Promise<boolean> {
+/**
+ * Seed the demo lab when the database has no users yet; returns whether it seeded. Safe to run again:
+ * a database that holds anything is left alone. `today` is the lab's date (calibration dates are relative to it).
+ */
+export async function seedDemoLab(password: string, today: string): Promise<boolean> {
   if ((await UserModel.count()) > 0) return false;
   const passwordHash = await hashPassword(password);
-  await UserModel.bulkCreate(
-    demoAccounts.map((a) => ({ ...a, passwordHash })),
-    { ignoreDuplicates: true },
-  );
+  const users = await UserModel.bulkCreate(demoAccounts.map((a) => ({ ...a, passwordHash })));
+  const id = (email: string) => users.find((u) => u.email === email)!.id;
+  await seedDemoInventory(today, {
+    managerId: id('manager@lab.test'),
+    researcherIds: [id('researcher@lab.test'), id('researcher2@lab.test')],
+  });
   return true;
 }
 

@@ -10,6 +10,9 @@ import { labInfoOptions } from '@/features/lab/api/lab.queries';
 /** Navigation entries and the least role that sees each. */
 const navigation: { to: string; label: string; minimum: Role }[] = [
   { to: '/', label: 'Overview', minimum: 'visitor' },
+  { to: '/instruments', label: 'Instruments', minimum: 'visitor' },
+  { to: '/parts', label: 'Cables & parts', minimum: 'visitor' },
+  { to: '/labels', label: 'Labels', minimum: 'manager' },
   { to: '/people', label: 'People', minimum: 'manager' },
 ];
 
@@ -33,7 +36,7 @@ export function AppShell() {
       <a href="#main" className="sr-only focus:not-sr-only focus:absolute focus:left-3 focus:top-3 focus:rounded-chip focus:bg-white focus:px-3 focus:py-2">
         Skip to content
       </a>
-      <header className="bg-ink-900 text-ptfe-50">
+      <header className="bg-ink-900 text-ptfe-50 print:hidden">
         <div className="mx-auto flex max-w-6xl flex-wrap items-center gap-x-8 gap-y-2 px-5 py-3">
           <div className="flex items-baseline gap-3">
             <span className="text-lead font-extrabold tracking-tight">
@@ -76,7 +79,7 @@ export function AppShell() {
         </div>
         <div className={`h-0.5 bg-copper-400 transition-opacity ${busy ? 'animate-pulse opacity-100' : 'opacity-0'}`} aria-hidden />
       </header>
-      <main id="main" className="mx-auto max-w-6xl px-5 py-8">
+      <main id="main" className="mx-auto max-w-6xl px-5 py-8 print:max-w-none print:p-0">
         <Outlet />
       </main>
     </div>

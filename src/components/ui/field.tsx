@@ -1,4 +1,4 @@
-import { useId, type InputHTMLAttributes, type ReactNode, type Ref, type SelectHTMLAttributes } from 'react';
+import { useId, type InputHTMLAttributes, type ReactNode, type Ref, type SelectHTMLAttributes, type TextareaHTMLAttributes } from 'react';
 
 interface FieldShellProps {
   label: string;
@@ -84,5 +84,39 @@ export function SelectField({
         </select>
       )}
     </FieldShell>
+  );
+}
+
+export function TextAreaField({
+  label,
+  error,
+  hint,
+  ref,
+  ...props
+}: TextareaHTMLAttributes<HTMLTextAreaElement> & { label: string; error?: string; hint?: ReactNode; ref?: Ref<HTMLTextAreaElement> }) {
+  return (
+    <FieldShell label={label} error={error} hint={hint}>
+      {({ inputId, describedBy }) => (
+        <textarea id={inputId} ref={ref} rows={3} aria-invalid={error ? true : undefined} aria-describedby={describedBy} className={controlClass(error)} {...props} />
+      )}
+    </FieldShell>
+  );
+}
+
+export function CheckboxField({
+  label,
+  hint,
+  ref,
+  ...props
+}: InputHTMLAttributes<HTMLInputElement> & { label: string; hint?: ReactNode; ref?: Ref<HTMLInputElement> }) {
+  const id = useId();
+  return (
+    <div className="flex items-start gap-2.5 py-1">
+      <input id={id} ref={ref} type="checkbox" className="mt-1 h-4 w-4 accent-copper-600" aria-describedby={hint ? `${id}-hint` : undefined} {...props} />
+      <div>
+        <label htmlFor={id} className="text-body font-semibold text-ink-800">{label}</label>
+        {hint ? <p id={`${id}-hint`} className="text-caption text-ink-500">{hint}</p> : null}
+      </div>
+    </div>
   );
 }

@@ -1,0 +1,107 @@
+import type { Browser, BrowserContext, Page } from 'playwright-core';
+import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, it } from 'vitest';
+import { launchBrowser, screenshot, signInThroughForm, startLiveApp, type LiveApp } from '../support/browser.js';
+
+let live: LiveApp;
+let browser: Browser;
+let context: BrowserContext;
+let page: Page;
+
+beforeAll(async () => {
+  [live, browser] = await Promise.all([startLiveApp(), launchBrowser()]);
+});
+afterAll(async () => {
+  await browser?.close();
+  await live?.close();
+});
+beforeEach(async () => {
+  context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
+  page = await context.newPage();
+});
+afterEach(async () => {
+  await context.close();
+});
+
+describe('inventory (lab manager)', () => {
+  it('adds a cable and watches its delay update while typing, then sees it in the table', async () => {
+    await signInThroughForm(page, live.url, 'manager@lab.test');
+    await page.getByRole('link', { name: 'Cables & parts' }).click();
+    await page.getByRole('table').waitFor();
+    await page.getByRole('link', { name: 'Add part' }).click();
+    const form = page.getByRole('form', { name: 'New part' });
+    await form.getByLabel('Tag').fill('C-321');
+    await form.getByLabel('Description').fill('Flexible PTFE cable for the browser test');
+    await form.getByLabel('Velocity factor (datasheet)').fill('0.695');
+    const delay = page.getByTestId('preview-delay');
+    await form.getByLabel('Length (mm)').fill('500');
+    // 500 mm at VF 0.695: 2399.742 ps (RF-PRIMER W-03); 1000 mm doubles it.
+    await expect.poll(() => delay.textContent()).toBe('2399.7 ps');
+    await form.getByLabel('Length (mm)').fill('1000');
+    await expect.poll(() => delay.textContent()).toBe('4799.5 ps');
+    // c × 4799.483 ps = 1438.849 mm of free space (= 1000 mm / 0.695).
+    expect(await page.getByTestId('preview-free-space').textContent()).toBe('1438.8 mm');
+    await screenshot(page, 'part-form-cable');
+
+    await form.getByLabel('Length (mm)').fill('-5');
+    await form.getByRole('button', { name: 'Add part' }).click();
+    await expect.poll(() => form.getByText('Length must be above 0 mm').count()).toBe(1);
+    await form.getByLabel('Length (mm)').fill('1000');
+    await form.getByRole('button', { name: 'Add part' }).click();
+    await page.waitForURL(/\/parts\/\d+$/);
+    await expect.poll(() => page.getByTestId('part-delay').textContent()).toBe('4799.5 ps');
+    await screenshot(page, 'part-detail-manager');
+
+    await page.goto(`${live.url}/parts?q=C-321`);
+    await expect.poll(() => page.getByRole('row', { name: /C-321/ }).count()).toBe(1);
+  });
+
+  it('filters the instrument table by kind and sorts it, and shows calibration badges', async () => {
+    await signInThroughForm(page, live.url, 'manager@lab.test');
+    await page.getByRole('link', { name: 'Instruments' }).click();
+    await page.getByRole('table').waitFor();
+    expect(await page.getByText(/Calibration overdue/).count()).toBeGreaterThan(0);
+    expect(await page.getByText(/Calibration due in/).count()).toBeGreaterThan(0);
+    await page.getByLabel('Kind').selectOption('probe-station');
+    await expect.poll(() => page.getByRole('row').count()).toBe(3); // header + PS-1 + PS-2
+    await page.getByRole('button', { name: /^Tag/ }).click(); // ascending (already) → descending
+    await expect.poll(async () => (await page.getByRole('row').nth(1).textContent())?.startsWith('PS-2')).toBe(true);
+    await screenshot(page, 'instruments-manager');
+  });
+
+  it('prints QR labels for chosen items', async () => {
+    await signInThroughForm(page, live.url, 'manager@lab.test');
+    await page.getByRole('link', { name: 'Labels' }).click();
+    await page.getByText('PS-1').first().click();
+    await page.getByRole('checkbox', { name: /C-003/ }).check();
+    await expect.poll(() => page.getByRole('img', { name: /QR code for/ }).count()).toBe(2);
+    expect(await page.getByRole('button', { name: 'Print 2 labels' }).isEnabled()).toBe(true);
+    await screenshot(page, 'labels');
+  });
+});
+
+describe('inventory (researcher and visitor)', () => {
+  it.each(['researcher@lab.test', 'visitor@lab.test'])('%s sees instruments and parts but no edit controls', async (email) => {
+    await signInThroughForm(page, live.url, email);
+    await page.getByRole('link', { name: 'Instruments' }).click();
+    await page.getByRole('table').waitFor();
+    expect(await page.getByRole('link', { name: 'Add instrument' }).count()).toBe(0);
+    await page.getByRole('link', { name: 'NA-1' }).click();
+    await page.getByRole('heading', { name: /NA-1/ }).waitFor();
+    expect(await page.getByRole('link', { name: 'Edit' }).count()).toBe(0);
+    expect(await page.getByRole('button', { name: /Revoke/ }).count()).toBe(0);
+    await expect.poll(() => page.getByText(/Keep the RF input below \+27 dBm/).count()).toBe(1);
+
+    await page.getByRole('link', { name: 'Cables & parts' }).click();
+    await page.getByRole('table').waitFor();
+    expect(await page.getByRole('link', { name: 'Add part' }).count()).toBe(0);
+    expect(await page.getByRole('button', { name: 'Import CSV…' }).count()).toBe(0);
+    expect(await page.getByRole('link', { name: 'Export CSV' }).count()).toBe(1);
+    await page.getByRole('link', { name: 'C-011' }).click();
+    await expect.poll(() => page.getByTestId('part-delay').textContent()).toBe('866.4 ps');
+    expect(await page.getByRole('link', { name: 'Edit' }).count()).toBe(0);
+    await screenshot(page, `part-detail-${email.split('@')[0]}`);
+
+    await page.goto(`${live.url}/parts/new`);
+    await expect.poll(() => page.getByRole('heading', { level: 1 }).textContent()).toBe('Not available for your role');
+  });
+});
