@@ -26,5 +26,7 @@ export default defineConfig({
     testTimeout: 30_000,
     hookTimeout: 90_000,
     pool: 'forks',
+    // Browser journeys wait for the server and the page; under load on 2 cores that can take seconds.
+    expect: { poll: { timeout: 10_000, interval: 50 } },
   },
 });

@@ -30,6 +30,7 @@ try {
     TEST_PGUSER: cluster.user,
     TEST_PGPASSWORD: cluster.password,
     TEST_CLIENT_DIST: clientDist,
+    TEST_UPLOADS_DIR: path.join(temp, 'uploads'),
   };
   const vitest = launch(path.join(root, 'node_modules', '.bin', 'vitest'), ['run', ...process.argv.slice(2)], { env });
   const stop = () => vitest.kill('SIGTERM');

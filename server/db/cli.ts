@@ -1,6 +1,7 @@
 // `node dist-server/server/db/cli.js migrate|seed` (or through tsx): the database steps of npm start.
 import { loadConfig } from '../config.js';
 import { setLogLevel } from '../lib/logger.js';
+import { createImageStore } from '../lib/uploads.js';
 import { connectDatabase } from './connect.js';
 import { migrate } from './migrator.js';
 import { seedDemoLab } from './seeders/demo-lab.js';
@@ -15,7 +16,7 @@ try {
     const applied = await migrate(db.sequelize);
     console.log(applied.length ? `applied migrations: ${applied.join(', ')}` : 'database schema is up to date');
   } else if (command === 'seed') {
-    const seeded = await seedDemoLab(config.demoPassword, labToday(config.lab.timeZone));
+    const seeded = await seedDemoLab({ password: config.demoPassword, today: labToday(config.lab.timeZone), images: createImageStore(config.uploads) });
     console.log(seeded ? 'seeded the demo lab' : 'database already holds data: demo lab not re-seeded');
   } else {
     console.error('usage: cli.ts migrate|seed');

@@ -1,4 +1,8 @@
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
 import type { Browser, BrowserContext, Page } from 'playwright-core';
+import sharp from 'sharp';
 import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { launchBrowser, screenshot, signInThroughForm, startLiveApp, type LiveApp } from '../support/browser.js';
 
@@ -55,6 +59,40 @@ describe('inventory (lab manager)', () => {
     await expect.poll(() => page.getByRole('row', { name: /C-321/ }).count()).toBe(1);
   });
 
+  it('uploads a photo of a part with a progress bar and sees its thumbnail', async () => {
+    const dir = mkdtempSync(path.join(os.tmpdir(), 'skewbench-photo-'));
+    const file = path.join(dir, 'bench.jpg');
+    // A large noisy image, so that uploading and processing take long enough to show progress.
+    writeFileSync(
+      file,
+      await sharp({ create: { width: 2600, height: 1700, channels: 3, background: '#8899aa', noise: { type: 'gaussian', mean: 128, sigma: 60 } } }).jpeg({ quality: 95 }).toBuffer(),
+    );
+    try {
+      await signInThroughForm(page, live.url, 'manager@lab.test');
+      await page.getByRole('link', { name: 'Cables & parts' }).click();
+      await page.getByRole('link', { name: 'C-009' }).click();
+      const form = page.getByRole('form', { name: 'Add a photo' });
+      await form.waitFor();
+      await page.evaluate(() => {
+        const w = window as unknown as { sawProgress: boolean };
+        w.sawProgress = false;
+        new MutationObserver(() => {
+          if (document.querySelector('[role="progressbar"]')) w.sawProgress = true;
+        }).observe(document.body, { childList: true, subtree: true });
+      });
+      await form.getByLabel('Image').setInputFiles(file);
+      await form.getByLabel('Caption').fill('C-009 coiled on the rack');
+      await form.getByRole('button', { name: 'Add photo' }).click();
+      await expect.poll(() => page.getByRole('img', { name: 'C-009 coiled on the rack' }).count()).toBe(1);
+      expect(await page.evaluate(() => (window as unknown as { sawProgress: boolean }).sawProgress)).toBe(true);
+      const thumb = page.getByRole('img', { name: 'C-009 coiled on the rack' });
+      await expect.poll(() => thumb.evaluate((img: HTMLImageElement) => img.complete && img.naturalWidth)).toBe(320);
+      await screenshot(page, 'part-photo-uploaded');
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
+  });
+
   it('filters the instrument table by kind and sorts it, and shows calibration badges', async () => {
     await signInThroughForm(page, live.url, 'manager@lab.test');
     await page.getByRole('link', { name: 'Instruments' }).click();
@@ -99,6 +137,13 @@ describe('inventory (researcher and visitor)', () => {
     await page.getByRole('link', { name: 'C-011' }).click();
     await expect.poll(() => page.getByTestId('part-delay').textContent()).toBe('866.4 ps');
     expect(await page.getByRole('link', { name: 'Edit' }).count()).toBe(0);
+    expect(await page.getByRole('form', { name: 'Add a photo' }).count()).toBe(0);
+    // The seeded photo of the matched pair is visible, without controls to change it.
+    await page.goto(`${live.url}/parts?q=C-003`);
+    await page.getByRole('link', { name: 'C-003' }).click();
+    await page.getByRole('img', { name: /Matched pair/ }).click();
+    await expect.poll(() => page.getByRole('dialog').count()).toBe(1);
+    expect(await page.getByRole('dialog').getByRole('button', { name: /Delete/ }).count()).toBe(0);
     await screenshot(page, `part-detail-${email.split('@')[0]}`);
 
     await page.goto(`${live.url}/parts/new`);

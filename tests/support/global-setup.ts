@@ -6,6 +6,7 @@ import { migrate } from '../../server/db/migrator.js';
 import { seedDemoLab } from '../../server/db/seeders/demo-lab.js';
 import { labToday } from '../../server/features/instruments/instruments.service.js';
 import { setLogLevel } from '../../server/lib/logger.js';
+import { createImageStore } from '../../server/lib/uploads.js';
 import { TEMPLATE_DB, testCluster, testConfig } from './test-env.js';
 
 export default async function setup() {
@@ -19,6 +20,6 @@ export default async function setup() {
   const config = testConfig(TEMPLATE_DB);
   const db = connectDatabase(config);
   await migrate(db.sequelize);
-  await seedDemoLab(config.demoPassword, labToday(config.lab.timeZone));
+  await seedDemoLab({ password: config.demoPassword, today: labToday(config.lab.timeZone), images: createImageStore(config.uploads) });
   await db.close();
 }

@@ -23,6 +23,8 @@ export function testConfig(database: string, overrides: Record<string, string> =
     PGPASSWORD: c.password,
     PGDATABASE: database,
     SESSION_SECRET: 'test-session-secret-0123456789',
+    // The demo's seeded photos live in the test run's own folder, never in the checkout's uploads/.
+    UPLOADS_DIR: process.env.TEST_UPLOADS_DIR ?? '',
     ...overrides,
   });
 }

@@ -3,6 +3,9 @@ import { instrumentInputSchema } from '../../../shared/schemas/instruments.js';
 import { partInputSchema, type PartInput } from '../../../shared/schemas/parts.js';
 import { createInstrument, grantQualification } from '../../features/instruments/instruments.service.js';
 import { createPart } from '../../features/parts/parts.service.js';
+import type { SessionUser } from '../../../shared/schemas/people.js';
+import type { ImageStore } from '../../lib/uploads.js';
+import { seedDemoPhotos } from './demo-photos.js';
 
 /** `today` plus `days`, as YYYY-MM-DD: calibration dates of the demo stay relative to the day it is seeded. */
 function plusDays(today: string, days: number): string {
@@ -82,16 +85,30 @@ function demoParts(): PartInput[] {
   ];
 }
 
-/** Seed instruments, parts and qualifications into a database whose users were just seeded. */
-export async function seedDemoInventory(today: string, people: { managerId: number; researcherIds: number[] }): Promise<void> {
+/**
+ * Seed instruments, parts, qualifications and a few drawn photos into a database whose users were just seeded.
+ * Returns the ids of the seeded items by tag, for later parts of the demo.
+ */
+export async function seedDemoInventory(
+  today: string,
+  images: ImageStore,
+  people: { manager: SessionUser; researcherIds: number[] },
+): Promise<Map<string, number>> {
   const byTag = new Map<string, number>();
   for (const input of demoInstruments(today)) {
     const instrument = await createInstrument(instrumentInputSchema.parse(input), today);
     byTag.set(instrument.tag, instrument.id);
   }
-  for (const input of demoParts()) await createPart(partInputSchema.parse(input));
+  for (const input of demoParts()) {
+    const part = await createPart(partInputSchema.parse(input));
+    byTag.set(part.tag, part.id);
+  }
+  const managerId = people.manager.id;
   // The first researcher is trained on PS-1 and NA-1; the second only on PS-2.
   const [first, second] = people.researcherIds;
-  if (first) for (const tag of ['PS-1', 'PS-2', 'NA-1']) await grantQualification(byTag.get(tag)!, first, people.managerId);
-  if (second) await grantQualification(byTag.get('PS-2')!, second, people.managerId);
+  if (first) for (const tag of ['PS-1', 'PS-2', 'NA-1']) await grantQualification(byTag.get(tag)!, first, managerId);
+  if (second) await grantQualification(byTag.get('PS-2')!, second, managerId);
+  const id = (tag: string) => byTag.get(tag)!;
+  await seedDemoPhotos(images, people.manager, { ps1: id('PS-1'), c003: id('C-003'), c004: id('C-004'), sp01: id('SP-01') });
+  return byTag;
 }
