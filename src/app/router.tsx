@@ -1,4 +1,4 @@
-import { createBrowserRouter, redirect, RouterProvider, type LoaderFunctionArgs } from 'react-router-dom';
+import { createBrowserRouter, redirect, RouterProvider, type LoaderFunctionArgs, type ShouldRevalidateFunction } from 'react-router-dom';
 import { hasRole, type Role } from '@shared/domain/roles';
 import { meOptions } from '@/features/auth/api/auth.queries';
 import { AppShell } from './routes/app-shell';
@@ -28,6 +28,13 @@ function requireRoleLoader(minimum: Role, message: string) {
   };
 }
 
+/**
+ * Auth loaders only need to run when the page changes, not when its search params (filters, selections) do:
+ * re-running them makes every filter change an asynchronous navigation, and quick successive changes race.
+ */
+const onlyOnNewPage: ShouldRevalidateFunction = ({ currentUrl, nextUrl, defaultShouldRevalidate }) =>
+  currentUrl.pathname !== nextUrl.pathname ? defaultShouldRevalidate : false;
+
 const router = createBrowserRouter([
   {
     path: '/sign-in',
@@ -38,6 +45,7 @@ const router = createBrowserRouter([
     path: '/',
     element: <AppShell />,
     loader: requireSignedIn,
+    shouldRevalidate: onlyOnNewPage,
     errorElement: <RouteError />,
     children: [
       {
@@ -48,34 +56,40 @@ const router = createBrowserRouter([
           {
             path: 'instruments/new',
             loader: requireRoleLoader('manager', 'Only lab managers add instruments.'),
+            shouldRevalidate: onlyOnNewPage,
             lazy: async () => ({ Component: (await import('./routes/instrument-edit')).InstrumentEditRoute }),
           },
           { path: 'instruments/:id', lazy: async () => ({ Component: (await import('./routes/instrument-detail')).InstrumentDetailRoute }) },
           {
             path: 'instruments/:id/edit',
             loader: requireRoleLoader('manager', 'Only lab managers edit instruments.'),
+            shouldRevalidate: onlyOnNewPage,
             lazy: async () => ({ Component: (await import('./routes/instrument-edit')).InstrumentEditRoute }),
           },
           { path: 'parts', lazy: async () => ({ Component: (await import('./routes/parts')).PartsRoute }) },
           {
             path: 'parts/new',
             loader: requireRoleLoader('manager', 'Only lab managers add parts.'),
+            shouldRevalidate: onlyOnNewPage,
             lazy: async () => ({ Component: (await import('./routes/part-edit')).PartEditRoute }),
           },
           { path: 'parts/:id', lazy: async () => ({ Component: (await import('./routes/part-detail')).PartDetailRoute }) },
           {
             path: 'parts/:id/edit',
             loader: requireRoleLoader('manager', 'Only lab managers edit parts.'),
+            shouldRevalidate: onlyOnNewPage,
             lazy: async () => ({ Component: (await import('./routes/part-edit')).PartEditRoute }),
           },
           {
             path: 'labels',
             loader: requireRoleLoader('manager', 'Only lab managers print labels.'),
+            shouldRevalidate: onlyOnNewPage,
             lazy: async () => ({ Component: (await import('./routes/labels')).LabelsRoute }),
           },
           {
             path: 'people',
             loader: requireRoleLoader('manager', 'The People page is for lab managers.'),
+            shouldRevalidate: onlyOnNewPage,
             lazy: async () => ({ Component: (await import('./routes/people')).PeopleRoute }),
           },
           { path: '*', lazy: async () => ({ Component: (await import('./routes/not-found')).NotFoundRoute }) },
