@@ -9,6 +9,7 @@ import type pg from 'pg';
 import type { Sequelize } from 'sequelize';
 import type { Config } from './config.js';
 import { authRouter } from './features/auth/auth.routes.js';
+import { bookingsRouter } from './features/bookings/bookings.routes.js';
 import { instrumentsRouter } from './features/instruments/instruments.routes.js';
 import { labRouter } from './features/lab/lab.routes.js';
 import { findActiveUser } from './features/people/people.service.js';
@@ -104,6 +105,9 @@ export function createApp({ config, sequelize, sessionPool }: AppDeps): Express 
   app.use('/api/lab', labRouter({ ...config.lab, publicUrl: config.publicUrl }));
   app.use('/api/instruments', instrumentsRouter({ timeZone: config.lab.timeZone }));
   app.use('/api/parts', partsRouter());
+  const booking = bookingsRouter({ timeZone: config.lab.timeZone });
+  app.use('/api/bookings', booking.bookings);
+  app.use('/api/waitlist', booking.waitlist);
   app.use('/api/photos', photosRouter(config.uploads));
   app.use('/api', apiNotFound);
 

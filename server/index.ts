@@ -3,6 +3,7 @@ import { createApp } from './app.js';
 import { loadConfig } from './config.js';
 import { connectDatabase } from './db/connect.js';
 import { activeDemoAccounts } from './db/seeders/demo-lab.js';
+import { markNoShows } from './features/bookings/bookings.service.js';
 import { logger, setLogLevel } from './lib/logger.js';
 
 const config = loadConfig();
@@ -26,11 +27,20 @@ const server = app.listen(config.port, config.host, async () => {
   console.log(lines.join('\n'));
 });
 
+// Bookings not checked in 30 minutes after their start become no-shows and release their slot.
+const noShowSweep = setInterval(() => {
+  markNoShows(new Date())
+    .then((n) => n && logger.info(`marked ${n} booking(s) as no-show`))
+    .catch((err) => logger.warn(`no-show sweep failed: ${(err as Error).message}`));
+}, 60_000);
+noShowSweep.unref();
+
 let stopping = false;
 async function stop(signal: string) {
   if (stopping) return;
   stopping = true;
   logger.info(`${signal}: stopping the web server`);
+  clearInterval(noShowSweep);
   server.close();
   server.closeAllConnections();
   await db.close();

@@ -1,4 +1,5 @@
 import type { Sequelize } from 'sequelize';
+import { BookingModel } from '../features/bookings/booking.model.js';
 import { InstrumentModel, QualificationModel } from '../features/instruments/instrument.model.js';
 import { PartModel } from '../features/parts/part.model.js';
 import { UserModel } from '../features/people/user.model.js';
@@ -10,6 +11,7 @@ export function initModels(sequelize: Sequelize): void {
   InstrumentModel.initModel(sequelize);
   QualificationModel.initModel(sequelize);
   PartModel.initModel(sequelize);
+  BookingModel.initModel(sequelize);
   PhotoModel.initModel(sequelize);
   // The photos service reads the uploader's name through `owner`, without importing the user model.
   PhotoModel.belongsTo(UserModel, { as: 'owner', foreignKey: 'ownerId' });
