@@ -16,7 +16,7 @@ try {
     const applied = await migrate(db.sequelize);
     console.log(applied.length ? `applied migrations: ${applied.join(', ')}` : 'database schema is up to date');
   } else if (command === 'seed') {
-    const seeded = await seedDemoLab({ password: config.demoPassword, today: labToday(config.lab.timeZone), images: createImageStore(config.uploads) });
+    const seeded = await seedDemoLab({ password: config.demoPassword, today: labToday(config.lab.timeZone), timeZone: config.lab.timeZone, images: createImageStore(config.uploads) });
     console.log(seeded ? 'seeded the demo lab' : 'database already holds data: demo lab not re-seeded');
   } else {
     console.error('usage: cli.ts migrate|seed');

@@ -20,6 +20,6 @@ export default async function setup() {
   const config = testConfig(TEMPLATE_DB);
   const db = connectDatabase(config);
   await migrate(db.sequelize);
-  await seedDemoLab({ password: config.demoPassword, today: labToday(config.lab.timeZone), images: createImageStore(config.uploads) });
+  await seedDemoLab({ password: config.demoPassword, today: labToday(config.lab.timeZone), timeZone: config.lab.timeZone, images: createImageStore(config.uploads) });
   await db.close();
 }
