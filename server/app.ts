@@ -9,6 +9,7 @@ import type pg from 'pg';
 import type { Sequelize } from 'sequelize';
 import type { Config } from './config.js';
 import { authRouter } from './features/auth/auth.routes.js';
+import { feedsRouter } from './features/feeds/feeds.routes.js';
 import { bookingsRouter } from './features/bookings/bookings.routes.js';
 import { instrumentsRouter } from './features/instruments/instruments.routes.js';
 import { labRouter } from './features/lab/lab.routes.js';
@@ -109,6 +110,7 @@ export function createApp({ config, sequelize, sessionPool }: AppDeps): Express 
   app.use('/api/bookings', booking.bookings);
   app.use('/api/waitlist', booking.waitlist);
   app.use('/api/photos', photosRouter(config.uploads));
+  app.use('/api/feeds', feedsRouter({ publicUrl: config.publicUrl, labName: config.lab.name }));
   app.use('/api', apiNotFound);
 
   // The built client: hashed assets cached for long, index.html never, every other path is the SPA.

@@ -1,4 +1,5 @@
 import type { Sequelize } from 'sequelize';
+import { FeedModel } from '../features/feeds/feed.model.js';
 import { BookingModel } from '../features/bookings/booking.model.js';
 import { InstrumentModel, QualificationModel } from '../features/instruments/instrument.model.js';
 import { PartModel } from '../features/parts/part.model.js';
@@ -13,6 +14,7 @@ export function initModels(sequelize: Sequelize): void {
   PartModel.initModel(sequelize);
   BookingModel.initModel(sequelize);
   PhotoModel.initModel(sequelize);
+  FeedModel.initModel(sequelize);
   // The photos service reads the uploader's name through `owner`, without importing the user model.
   PhotoModel.belongsTo(UserModel, { as: 'owner', foreignKey: 'ownerId' });
 }
