@@ -8,6 +8,7 @@ import helmet from 'helmet';
 import type pg from 'pg';
 import type { Sequelize } from 'sequelize';
 import type { Config } from './config.js';
+import { analysisRouter } from './features/analysis/analysis.routes.js';
 import { authRouter } from './features/auth/auth.routes.js';
 import { feedsRouter } from './features/feeds/feeds.routes.js';
 import { bookingsRouter } from './features/bookings/bookings.routes.js';
@@ -106,6 +107,7 @@ export function createApp({ config, sequelize, sessionPool }: AppDeps): Express 
   app.use('/api/lab', labRouter({ ...config.lab, publicUrl: config.publicUrl }));
   app.use('/api/instruments', instrumentsRouter({ timeZone: config.lab.timeZone }));
   app.use('/api/parts', partsRouter());
+  app.use('/api/analysis', analysisRouter());
   const booking = bookingsRouter({ timeZone: config.lab.timeZone });
   app.use('/api/bookings', booking.bookings);
   app.use('/api/waitlist', booking.waitlist);

@@ -121,3 +121,9 @@ export async function importParts(rows: PartValues[]): Promise<number> {
     return rows.length;
   });
 }
+
+/** Parts by id (any order; missing ids are simply absent), for resolving setup segments. */
+export async function partsByIds(ids: number[]): Promise<Part[]> {
+  if (ids.length === 0) return [];
+  return (await PartModel.findAll({ where: { id: ids } })).map(toPart);
+}
