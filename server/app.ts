@@ -48,7 +48,8 @@ export function createApp({ config, sequelize, sessionPool }: AppDeps): Express 
           // FullCalendar and React inline style attributes; no inline scripts anywhere.
           'style-src': ["'self'", "'unsafe-inline'"],
           'img-src': ["'self'", 'data:', 'blob:'],
-          'font-src': ["'self'"],
+          // FullCalendar's icon font ships inside its stylesheet as a data: URL.
+          'font-src': ["'self'", 'data:'],
           'connect-src': ["'self'"],
           'object-src': ["'none'"],
           'base-uri': ["'self'"],

@@ -52,6 +52,14 @@ const router = createBrowserRouter([
         errorElement: <RouteError />,
         children: [
           { index: true, lazy: async () => ({ Component: (await import('./routes/overview')).OverviewRoute }) },
+          { path: 'calendar', lazy: async () => ({ Component: (await import('./routes/calendar')).CalendarRoute }) },
+          {
+            path: 'bookings',
+            loader: requireRoleLoader('researcher', 'My bookings is for researchers and lab managers.'),
+            shouldRevalidate: onlyOnNewPage,
+            lazy: async () => ({ Component: (await import('./routes/my-bookings')).MyBookingsRoute }),
+          },
+          { path: 'bookings/:id', lazy: async () => ({ Component: (await import('./routes/booking-detail')).BookingDetailRoute }) },
           { path: 'instruments', lazy: async () => ({ Component: (await import('./routes/instruments')).InstrumentsRoute }) },
           {
             path: 'instruments/new',

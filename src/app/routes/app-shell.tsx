@@ -10,6 +10,8 @@ import { labInfoOptions } from '@/features/lab/api/lab.queries';
 /** Navigation entries and the least role that sees each. */
 const navigation: { to: string; label: string; minimum: Role }[] = [
   { to: '/', label: 'Overview', minimum: 'visitor' },
+  { to: '/calendar', label: 'Calendar', minimum: 'visitor' },
+  { to: '/bookings', label: 'My bookings', minimum: 'researcher' },
   { to: '/instruments', label: 'Instruments', minimum: 'visitor' },
   { to: '/parts', label: 'Cables & parts', minimum: 'visitor' },
   { to: '/labels', label: 'Labels', minimum: 'manager' },
@@ -37,12 +39,12 @@ export function AppShell() {
         Skip to content
       </a>
       <header className="bg-ink-900 text-ptfe-50 print:hidden">
-        <div className="mx-auto flex max-w-6xl flex-wrap items-center gap-x-8 gap-y-2 px-5 py-3">
+        <div className="mx-auto flex max-w-7xl flex-wrap items-center gap-x-5 gap-y-2 px-5 py-3">
           <div className="flex items-baseline gap-3">
             <span className="text-lead font-extrabold tracking-tight">
               skew<span className="text-copper-300">bench</span>
             </span>
-            {lab.data ? <span className="hidden text-caption text-ink-300 sm:inline">{lab.data.name}</span> : null}
+            {lab.data ? <span className="hidden text-caption text-ink-300 2xl:inline">{lab.data.name}</span> : null}
           </div>
           <nav aria-label="Main" className="flex flex-1 gap-1">
             {navigation
@@ -53,7 +55,7 @@ export function AppShell() {
                   to={item.to}
                   end={item.to === '/'}
                   className={({ isActive }) =>
-                    `rounded-chip px-3 py-1.5 text-body font-semibold ${isActive ? 'bg-ink-700 text-white' : 'text-ink-200 hover:bg-ink-800 hover:text-white'}`
+                    `whitespace-nowrap rounded-chip px-2.5 py-1.5 text-body font-semibold ${isActive ? 'bg-ink-700 text-white' : 'text-ink-200 hover:bg-ink-800 hover:text-white'}`
                   }
                 >
                   {item.label}
@@ -62,7 +64,7 @@ export function AppShell() {
           </nav>
           <div className="flex items-center gap-3">
             <div className="text-right leading-tight">
-              <div className="text-body font-semibold">{user.name}</div>
+              <div className="whitespace-nowrap text-body font-semibold">{user.name}</div>
               <div className="text-caption text-copper-200" data-testid="role-label">
                 {roleLabels[user.role]}
               </div>
@@ -79,7 +81,7 @@ export function AppShell() {
         </div>
         <div className={`h-0.5 bg-copper-400 transition-opacity ${busy ? 'animate-pulse opacity-100' : 'opacity-0'}`} aria-hidden />
       </header>
-      <main id="main" className="mx-auto max-w-6xl px-5 py-8 print:max-w-none print:p-0">
+      <main id="main" className="mx-auto max-w-7xl px-5 py-8 print:max-w-none print:p-0">
         <Outlet />
       </main>
     </div>
