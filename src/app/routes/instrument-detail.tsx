@@ -7,6 +7,9 @@ import { InstrumentDetails } from '@/features/instruments/components/instrument-
 import { QualificationsPanel } from '@/features/instruments/components/qualifications-panel';
 import { peopleListOptions } from '@/features/people/api/people.queries';
 import { PhotoGallery } from '@/features/photos/components/photo-gallery';
+import { InstrumentBookings } from '@/features/bookings/components/instrument-bookings';
+import { CalendarFeedsPanel } from '@/features/feeds/components/calendar-feeds-panel';
+import { labInfoOptions } from '@/features/lab/api/lab.queries';
 
 export function InstrumentDetailRoute() {
   const id = Number(useParams().id);
@@ -14,6 +17,7 @@ export function InstrumentDetailRoute() {
   const isManager = user.can('manager');
   const instrument = useQuery(instrumentDetailOptions(id));
   const people = useQuery({ ...peopleListOptions(), enabled: isManager });
+  const lab = useQuery(labInfoOptions());
 
   if (instrument.isPending) return <Loading label="Loading instrument…" />;
   if (instrument.isError) return <Notice tone="fault">{instrument.error.message}</Notice>;
@@ -33,6 +37,8 @@ export function InstrumentDetailRoute() {
       </div>
       <InstrumentDetails instrument={i} />
       <div className="grid gap-5 lg:grid-cols-2">
+        {lab.data ? <InstrumentBookings instrumentId={i.id} timeZone={lab.data.timeZone} /> : <Loading />}
+        <CalendarFeedsPanel instrumentId={i.id} />
         <QualificationsPanel instrumentId={i.id} candidates={isManager ? (people.data ?? []) : null} />
         <PhotoGallery subjectType="instrument" subjectId={i.id} canUpload={isManager} currentUserId={user.id} isManager={isManager} />
       </div>

@@ -2,6 +2,7 @@ import { useQuery } from '@tanstack/react-query';
 import { Link } from 'react-router-dom';
 import { Loading, Notice } from '@/components/ui/feedback';
 import { MyBookingLists, MyWaitlist } from '@/features/bookings/components/my-bookings';
+import { CalendarFeedsPanel } from '@/features/feeds/components/calendar-feeds-panel';
 import { labInfoOptions } from '@/features/lab/api/lab.queries';
 
 /** /bookings (researchers and managers): my upcoming and past bookings and the slots I wait for. */
@@ -22,6 +23,7 @@ export function MyBookingsRoute() {
       </div>
       <MyBookingLists timeZone={lab.data.timeZone} />
       <MyWaitlist timeZone={lab.data.timeZone} />
+      <CalendarFeedsPanel />
     </div>
   );
 }
