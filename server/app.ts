@@ -18,6 +18,7 @@ import { findActiveUser } from './features/people/people.service.js';
 import { peopleRouter } from './features/people/people.routes.js';
 import { photosRouter } from './features/photos/photos.routes.js';
 import { partsRouter } from './features/parts/parts.routes.js';
+import { setupsRouter } from './features/setups/setups.routes.js';
 import { loadSessionUser } from './lib/auth.js';
 import { requireCsrfToken } from './lib/csrf.js';
 import { apiNotFound, errorHandler } from './lib/error-handler.js';
@@ -88,10 +89,12 @@ export function createApp({ config, sequelize, sessionPool }: AppDeps): Express 
     session({
       name: SESSION_COOKIE,
       secret: config.sessionSecret,
-      store: new PgStore({ pool: sessionPool, tableName: 'sessions', pruneSessionInterval: 15 * 60 }),
+      // A session lasts 12 h from sign-in, not 12 h from the last request: without touch (and so without
+      // rolling, which would only renew the cookie) a request reads its session row and never writes it, one
+      // UPDATE per API call fewer. The user row is still read on every request, so deactivation is immediate.
+      store: new PgStore({ pool: sessionPool, tableName: 'sessions', pruneSessionInterval: 15 * 60, disableTouch: true }),
       resave: false,
       saveUninitialized: false,
-      rolling: true,
       cookie: {
         httpOnly: true,
         sameSite: 'lax',
@@ -109,6 +112,7 @@ export function createApp({ config, sequelize, sessionPool }: AppDeps): Express 
   app.use('/api/instruments', instrumentsRouter({ timeZone: config.lab.timeZone }));
   app.use('/api/parts', partsRouter());
   app.use('/api/analysis', analysisRouter());
+  app.use('/api/setups', setupsRouter());
   const booking = bookingsRouter({ timeZone: config.lab.timeZone });
   app.use('/api/bookings', booking.bookings);
   app.use('/api/waitlist', booking.waitlist);

@@ -3,6 +3,7 @@ import { FeedModel } from '../features/feeds/feed.model.js';
 import { BookingModel } from '../features/bookings/booking.model.js';
 import { InstrumentModel, QualificationModel } from '../features/instruments/instrument.model.js';
 import { PartModel } from '../features/parts/part.model.js';
+import { SetupModel } from '../features/setups/setup.model.js';
 import { UserModel } from '../features/people/user.model.js';
 import { PhotoModel } from '../features/photos/photo.model.js';
 
@@ -13,6 +14,7 @@ export function initModels(sequelize: Sequelize): void {
   QualificationModel.initModel(sequelize);
   PartModel.initModel(sequelize);
   BookingModel.initModel(sequelize);
+  SetupModel.initModel(sequelize);
   PhotoModel.initModel(sequelize);
   FeedModel.initModel(sequelize);
   // The photos service reads the uploader's name through `owner`, without importing the user model.

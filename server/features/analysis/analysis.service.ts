@@ -5,7 +5,7 @@ import { AppError } from '../../lib/errors.js';
 import { partsByIds } from '../parts/parts.service.js';
 
 /** Replace every {"partId"} segment with the part's values; an unknown part is a 400 on that segment. */
-export async function resolveSegments(doc: AnalysisInput): Promise<AnalysisInput & { paths: { source: string; channel: number; segments: Segment[] }[] }> {
+export async function resolveSegments(doc: AnalysisInput): Promise<Omit<AnalysisInput, 'paths'> & { paths: { source: string; channel: number; segments: Segment[] }[] }> {
   const ids = [...new Set(doc.paths.flatMap((p) => p.segments.flatMap((s) => ('partId' in s ? [s.partId] : []))))];
   const parts = new Map((await partsByIds(ids)).map((p) => [p.id, p]));
   const issues: { path: string; message: string }[] = [];
