@@ -170,6 +170,90 @@ function responseWith(s: PerSource, chipDelaysPs: number[], gains: number[]): nu
   return delayAndSumDb(s.frequencyHz, delays, s.amplitudes.map((a, n) => a * gains[n]!));
 }
 
+/** One source's channels as phasors b_n = w_n·exp(−j2πf·x_n) (x_n in ps), with Σ|w_n| for normalising. */
+interface Phasors {
+  frequencyHz: number;
+  re: Float64Array;
+  im: Float64Array;
+  total: number;
+}
+
+function phasorsOf(frequencyHz: number, delaysPs: number[], weights: number[]): Phasors {
+  const re = new Float64Array(delaysPs.length);
+  const im = new Float64Array(delaysPs.length);
+  let total = 0;
+  for (let n = 0; n < delaysPs.length; n++) {
+    const phase = -2 * Math.PI * frequencyHz * delaysPs[n]! * 1e-12;
+    re[n] = weights[n]! * Math.cos(phase);
+    im[n] = weights[n]! * Math.sin(phase);
+    total += Math.abs(weights[n]!);
+  }
+  return { frequencyHz, re, im, total };
+}
+
+/** A power ratio |Σ|²/(Σ w)² in dB, with delayAndSumDb's floor and 0 dB ceiling (no square root needed). */
+function powerRatioDb(ratio: number): number {
+  return Math.min(0, Math.max(RESPONSE_FLOOR_DB, 10 * Math.log10(ratio)));
+}
+
+/**
+ * The delay-and-sum response of `p` when channel n gets a further n·stepPs: |Σ b_n·zⁿ| / Σ|w_n| with
+ * z = exp(−j2πf·stepPs), in dB, as delayAndSumDb would give it. The null search adds a delay that grows by the
+ * same amount per channel, so Horner's rule needs one sine and cosine per candidate instead of one per channel;
+ * the sum agrees with the direct one to rounding (its error grows like N·ε, as the direct sum's does).
+ */
+function progressiveResponseDb(p: Phasors, stepPs: number): number {
+  if (p.total === 0) return RESPONSE_FLOOR_DB;
+  const phase = -2 * Math.PI * p.frequencyHz * stepPs * 1e-12;
+  const zRe = Math.cos(phase);
+  const zIm = Math.sin(phase);
+  let re = 0;
+  let im = 0;
+  for (let n = p.re.length - 1; n >= 0; n--) {
+    const nextRe = re * zRe - im * zIm + p.re[n]!;
+    im = re * zIm + im * zRe + p.im[n]!;
+    re = nextRe;
+  }
+  return powerRatioDb((re * re + im * im) / (p.total * p.total));
+}
+
+/**
+ * progressiveResponseDb for +stepPs and −stepPs at once, into out[plus] and out[minus]: the pattern at θ and −θ.
+ * With c_n = a_n + j·b_n, A = Σ a_n·zⁿ and B = Σ b_n·zⁿ (real coefficients, Horner's rule) give
+ * Σ c_n·zⁿ = A + j·B, and since z̄ is the step's other sign, |Σ c_n·z̄ⁿ| = |Σ c̄_n·zⁿ| = |A − j·B|.
+ * One sine and cosine and two real-coefficient chains serve two angles: the pattern dominates the analysis
+ * (181 angles per source), and this halves its trigonometry.
+ */
+function mirroredResponsesDb(p: Phasors, stepPs: number, out: number[], plus: number, minus: number): void {
+  if (p.total === 0) {
+    out[plus] = RESPONSE_FLOOR_DB;
+    out[minus] = RESPONSE_FLOOR_DB;
+    return;
+  }
+  const phase = -2 * Math.PI * p.frequencyHz * stepPs * 1e-12;
+  const zRe = Math.cos(phase);
+  const zIm = Math.sin(phase);
+  let aRe = 0;
+  let aIm = 0;
+  let bRe = 0;
+  let bIm = 0;
+  for (let n = p.re.length - 1; n >= 0; n--) {
+    const nextARe = aRe * zRe - aIm * zIm + p.re[n]!;
+    aIm = aRe * zIm + aIm * zRe;
+    aRe = nextARe;
+    const nextBRe = bRe * zRe - bIm * zIm + p.im[n]!;
+    bIm = bRe * zIm + bIm * zRe;
+    bRe = nextBRe;
+  }
+  const total2 = p.total * p.total;
+  out[plus] = powerRatioDb(((aRe - bIm) ** 2 + (aIm + bRe) ** 2) / total2);
+  out[minus] = powerRatioDb(((aRe + bIm) ** 2 + (aIm - bRe) ** 2) / total2);
+}
+
+/** The pattern's angles, whole degrees from −90° to 90°, and their sines (the same for every analysis). */
+const PATTERN_ANGLES_DEG = Array.from({ length: 181 }, (_, i) => i - 90);
+const PATTERN_SINES = PATTERN_ANGLES_DEG.map((deg) => Math.sin((deg * Math.PI) / 180));
+
 /**
  * Analyse a setup document whose references are resolved (every segment carries its own values).
  * The caller validates the document's shape (shared/schemas/analysis.ts); this assumes every
@@ -183,25 +267,32 @@ export function analyseSetup(doc: AnalysisDocument): AnalysisResult {
   const warnings: AnalysisWarning[] = [];
 
   const paths: PathResult[] = [];
+  // Each source's segments by channel; the first path given for a channel wins, as a search would find it.
+  const segmentsOf = new Map<string, Segment[][]>();
+  for (const p of doc.paths) {
+    const byChannel = segmentsOf.get(p.source) ?? [];
+    byChannel[p.channel] ??= p.segments;
+    segmentsOf.set(p.source, byChannel);
+  }
+  const inputMw = new Array<number>(n).fill(0);
   const perSource: PerSource[] = doc.sources.map((source) => {
     const pathDelaysPs: number[] = [];
     const amplitudes: number[] = [];
+    const byChannel = segmentsOf.get(source.key) ?? [];
     for (let channel = 0; channel < n; channel++) {
-      const path = doc.paths.find((p) => p.source === source.key && p.channel === channel);
-      const segments = path?.segments ?? [];
+      const segments = byChannel[channel] ?? [];
       if (segments.length === 0) {
         warnings.push({ code: 'empty-path', source: source.key, channel, message: `The path of ${source.key} to input ${channel} has no segments: it is taken as 0 ps and 0 dB.` });
       }
-      const delayPs = segments.reduce((sum, s) => sum + segmentDelayPs(s), 0);
-      const lossDb = segments.reduce((sum, s) => sum + segmentLossDb(s, source.frequencyHz), 0);
-      paths.push({
-        source: source.key,
-        channel,
-        delayPs,
-        lossDb,
-        powerAtInputDbm: source.powerDbm - lossDb,
-        freeSpaceEquivalentM: freeSpaceEquivalentM(lossDb, source.frequencyHz),
-      });
+      let delayPs = 0;
+      let lossDb = 0;
+      for (const segment of segments) {
+        delayPs += segmentDelayPs(segment);
+        lossDb += segmentLossDb(segment, source.frequencyHz);
+      }
+      const powerAtInputDbm = source.powerDbm - lossDb;
+      paths.push({ source: source.key, channel, delayPs, lossDb, powerAtInputDbm, freeSpaceEquivalentM: freeSpaceEquivalentM(lossDb, source.frequencyHz) });
+      inputMw[channel] += 10 ** (powerAtInputDbm / 10);
       pathDelaysPs.push(delayPs);
       amplitudes.push(dbToAmplitude(lossDb));
     }
@@ -210,7 +301,7 @@ export function analyseSetup(doc: AnalysisDocument): AnalysisResult {
 
   // Power at each chip input: all sources summed in mW (incoherent tones at different frequencies).
   const inputs = Array.from({ length: n }, (_, channel) => {
-    const mw = paths.filter((p) => p.channel === channel).reduce((sum, p) => sum + 10 ** (p.powerAtInputDbm / 10), 0);
+    const mw = inputMw[channel]!;
     const totalPowerDbm = mw > 0 ? 10 * Math.log10(mw) : RESPONSE_FLOOR_DB;
     const limit = doc.inputs?.find((i) => i.channel === channel)?.maxInputDbm ?? null;
     const marginDb = limit === null ? null : limit - totalPowerDbm;
@@ -258,27 +349,42 @@ export function analyseSetup(doc: AnalysisDocument): AnalysisResult {
   if (doc.nullSearch && target && n > 1) {
     const { maxDelayPs, stepPs } = doc.nullSearch;
     const want = desired.length === 1 ? desired[0]! : null;
-    const maxStep = maxDelayPs / (n - 1);
-    let best: { delaysPs: number[]; score: number } | null = null;
-    // Progressive delays t_n = n·Δ (or (N−1−n)·|Δ| for the other direction), each within [0, maxDelayPs].
-    for (let k = -Math.floor(maxStep / stepPs); k <= Math.floor(maxStep / stepPs); k++) {
+    // A range that is a whole number of steps in decimal (0.3 ps in 0.1 ps steps) is a hair short of it in
+    // binary (2.9999999999999996): without the allowance its last step on each side would be lost.
+    const steps = Math.floor((maxDelayPs / (n - 1) / stepPs) * (1 + 1e-9));
+    // Each source's channels with their path delays and weights; the search only adds n·Δ to channel n.
+    const relativePhasors = (s: PerSource) =>
+      phasorsOf(s.frequencyHz, s.pathDelaysPs.map((t) => t - s.pathDelaysPs[0]!), s.amplitudes.map((a, i) => a * gains[i]!));
+    const wantPhasors = want && relativePhasors(want);
+    const targetPhasors = relativePhasors(target);
+    let bestK = -steps;
+    let bestScore = -Infinity;
+    for (let k = -steps; k <= steps; k++) {
       const delta = k * stepPs;
-      const delaysPs = Array.from({ length: n }, (_, i) => (delta >= 0 ? i * delta : (n - 1 - i) * -delta));
-      const score = (want ? responseWith(want, delaysPs, gains) : 0) - responseWith(target, delaysPs, gains);
-      if (!best || score > best.score + 1e-12) best = { delaysPs, score };
+      const score = (wantPhasors ? progressiveResponseDb(wantPhasors, delta) : 0) - progressiveResponseDb(targetPhasors, delta);
+      if (k === -steps || score > bestScore + 1e-12) {
+        bestK = k;
+        bestScore = score;
+      }
     }
-    bestNull = best ? { delaysPs: best.delaysPs, rejectionDb: best.score } : null;
+    // Progressive delays t_n = n·Δ (or (N−1−n)·|Δ| for the other direction), each within [0, maxDelayPs].
+    const delta = bestK * stepPs;
+    const delaysPs = Array.from({ length: n }, (_, i) => Math.min(maxDelayPs, delta >= 0 ? i * delta : (n - 1 - i) * -delta));
+    // Reported as the setup with these chip delays evaluates, so applying them gives exactly this rejection.
+    bestNull = { delaysPs, rejectionDb: (want ? responseWith(want, delaysPs, gains) : 0) - responseWith(target, delaysPs, gains) };
   }
 
-  // Beam pattern with the current chip delays: a plane wave from θ reaches element n after n·d·sinθ/c.
-  const angleDeg = Array.from({ length: 181 }, (_, i) => i - 90);
+  // Beam pattern with the current chip delays: a plane wave from θ reaches element n after n·d·sinθ/c, so each
+  // angle adds n·(d·sinθ/c) to channel n; ±θ are evaluated together (index 90 + k is +k°, 90 − k is −k°).
+  const psPerUnitSine = ((d * 1e-3) / C) * 1e12;
   const responseDb: Record<string, number[]> = {};
   for (const s of doc.sources) {
-    responseDb[s.key] = angleDeg.map((deg) => {
-      const geometric = Array.from({ length: n }, (_, i) => ((i * d * 1e-3 * Math.sin((deg * Math.PI) / 180)) / C) * 1e12 + (chip[i]! - chip[0]!));
-      return delayAndSumDb(s.frequencyHz, geometric, gains);
-    });
+    const chipPhasors = phasorsOf(s.frequencyHz, chip.slice(0, n).map((t) => t - chip[0]!), gains);
+    const values = new Array<number>(PATTERN_ANGLES_DEG.length);
+    for (let k = 0; k <= 90; k++) mirroredResponsesDb(chipPhasors, psPerUnitSine * PATTERN_SINES[90 + k]!, values, 90 + k, 90 - k);
+    responseDb[s.key] = values;
   }
+  const angleDeg = PATTERN_ANGLES_DEG.slice();
 
   return { spacingMm: d, paths, inputs, sources, rejectionDb: rejection(chip), bestNull, pattern: { angleDeg, responseDb }, warnings };
 }

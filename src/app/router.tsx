@@ -60,6 +60,21 @@ const router = createBrowserRouter([
             lazy: async () => ({ Component: (await import('./routes/my-bookings')).MyBookingsRoute }),
           },
           { path: 'bookings/:id', lazy: async () => ({ Component: (await import('./routes/booking-detail')).BookingDetailRoute }) },
+          { path: 'setups', lazy: async () => ({ Component: (await import('./routes/setups')).SetupsRoute }) },
+          {
+            path: 'setups/new',
+            loader: requireRoleLoader('researcher', 'Recording setups is for researchers and lab managers.'),
+            shouldRevalidate: onlyOnNewPage,
+            lazy: async () => ({ Component: (await import('./routes/setup-new')).SetupNewRoute }),
+          },
+          { path: 'setups/:id', lazy: async () => ({ Component: (await import('./routes/setup-detail')).SetupDetailRoute }) },
+          {
+            path: 'setups/:id/edit',
+            loader: requireRoleLoader('researcher', 'Editing setups is for researchers and lab managers.'),
+            shouldRevalidate: onlyOnNewPage,
+            lazy: async () => ({ Component: (await import('./routes/setup-edit')).SetupEditRoute }),
+          },
+          { path: 'setups/:id/rebuild', lazy: async () => ({ Component: (await import('./routes/setup-rebuild')).SetupRebuildRoute }) },
           { path: 'instruments', lazy: async () => ({ Component: (await import('./routes/instruments')).InstrumentsRoute }) },
           {
             path: 'instruments/new',

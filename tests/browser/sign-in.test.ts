@@ -35,9 +35,9 @@ const navLinks = async () => page.getByRole('navigation', { name: 'Main' }).getB
 
 describe('sign-in and navigation by role', () => {
   it.each([
-    ['manager@lab.test', 'Lab manager', ['Overview', 'Calendar', 'My bookings', 'Instruments', 'Cables & parts', 'Labels', 'People']],
-    ['researcher@lab.test', 'Researcher', ['Overview', 'Calendar', 'My bookings', 'Instruments', 'Cables & parts']],
-    ['visitor@lab.test', 'Visitor', ['Overview', 'Calendar', 'Instruments', 'Cables & parts']],
+    ['manager@lab.test', 'Lab manager', ['Overview', 'Calendar', 'My bookings', 'Setups', 'Instruments', 'Cables & parts', 'Labels', 'People']],
+    ['researcher@lab.test', 'Researcher', ['Overview', 'Calendar', 'My bookings', 'Setups', 'Instruments', 'Cables & parts']],
+    ['visitor@lab.test', 'Visitor', ['Overview', 'Calendar', 'Setups', 'Instruments', 'Cables & parts']],
   ])('%s signs in and sees the %s navigation', async (email, roleLabel, links) => {
     await signInThroughForm(page, live.url, email);
     await expect.poll(() => page.getByTestId('role-label').textContent()).toBe(roleLabel);

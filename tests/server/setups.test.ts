@@ -145,6 +145,7 @@ describe('setups', () => {
     unknownPart.analysis.paths[0]!.segments = [{ partId: 99999 }];
     const res2 = await post(researcher, '/api/setups', { bookingId: bookingA, document: unknownPart });
     expect(res2.status).toBe(400);
+    expect(res2.body.error.details[0].path).toBe('document.analysis.paths.0.segments.0.partId');
     const rows = await t.db.sequelize.query<{ n: string }>('SELECT count(*) AS n FROM setups', { type: QueryTypes.SELECT });
     expect(Number(rows[0]!.n)).toBe(3);
   });

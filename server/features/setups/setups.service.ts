@@ -27,7 +27,13 @@ async function bookingFor(user: SessionUser, bookingId: number): Promise<{ id: n
 
 async function writeRevision(setupId: number, number: number, document: SetupDocument, note: string, user: SessionUser, transaction: Transaction): Promise<number> {
   // The server's analysis is computed from the document as saved, and stored with it.
-  const analysis = await analyse(document.analysis);
+  const analysis = await analyse(document.analysis).catch((err: unknown) => {
+    // Field paths of the analysis document sit under `document.analysis` in a setup request.
+    if (err instanceof AppError && Array.isArray(err.details)) {
+      throw new AppError(err.status, err.code, err.message, (err.details as { path: string; message: string }[]).map((d) => ({ ...d, path: `document.analysis.${d.path}` })));
+    }
+    throw err;
+  });
   const [row] = await db().query<{ id: number }>(
     `INSERT INTO setup_revisions (setup_id, number, document, analysis, saved_by, note) VALUES (:setupId, :number, :document, :analysis, :userId, :note) RETURNING id`,
     { replacements: { setupId, number, document: JSON.stringify(document), analysis: JSON.stringify(analysis), userId: user.id, note }, type: QueryTypes.SELECT, transaction },

@@ -12,6 +12,7 @@ const navigation: { to: string; label: string; minimum: Role }[] = [
   { to: '/', label: 'Overview', minimum: 'visitor' },
   { to: '/calendar', label: 'Calendar', minimum: 'visitor' },
   { to: '/bookings', label: 'My bookings', minimum: 'researcher' },
+  { to: '/setups', label: 'Setups', minimum: 'visitor' },
   { to: '/instruments', label: 'Instruments', minimum: 'visitor' },
   { to: '/parts', label: 'Cables & parts', minimum: 'visitor' },
   { to: '/labels', label: 'Labels', minimum: 'manager' },

@@ -8,6 +8,7 @@ import { BookingFacts } from '@/features/bookings/components/booking-facts';
 import { BookingHistory } from '@/features/bookings/components/booking-history';
 import { instrumentTags } from '@/features/bookings/utils/booking-text';
 import { labInfoOptions } from '@/features/lab/api/lab.queries';
+import { BookingSetupsPanel } from '@/features/setups/components/booking-setups-panel';
 
 /** /bookings/:id: one booking, what may be done with it now, and its audit trail. */
 export function BookingDetailRoute() {
@@ -37,6 +38,9 @@ export function BookingDetailRoute() {
         <BookingFacts booking={booking} timeZone={timeZone} full />
       </Panel>
       <BookingActions booking={booking} />
+      {booking.kind === 'booking' ? (
+        <BookingSetupsPanel bookingId={booking.id} canRecord={user.can('manager') || (user.can('researcher') && booking.owner?.id === user.id)} />
+      ) : null}
       <BookingHistory events={events} timeZone={timeZone} />
     </div>
   );
