@@ -83,7 +83,7 @@ describe('BeamPattern', () => {
 
   it('repeats the key values in a visually hidden table', () => {
     const html = render(createElement(BeamPattern, { pattern: result.pattern, sources: result.sources, nullAngleDeg: -41.14599 }));
-    const table = /<table class="sr-only">(.*?)<\/table>/.exec(html)?.[1];
+    const table = /<div class="sr-only"><table>(.*?)<\/table><\/div>/.exec(html)?.[1];
     expect(table).toBeDefined();
     expect(table).toContain('<th scope="row">jam</th><td>interferer</td><td>−30°</td><td>−12.19 dB</td>');
     expect(table).toContain('<td>non-physical</td>');

@@ -244,37 +244,40 @@ export function BeamPattern({ pattern, sources, nullAngleDeg = null, initialView
           </li>
         ) : null}
       </ul>
-      <table className="sr-only">
-        <caption>Beam pattern key values (responses below {PLOT_FLOOR_DB} dB are drawn at {PLOT_FLOOR_DB} dB)</caption>
-        <thead>
-          <tr>
-            <th scope="col">Source</th>
-            <th scope="col">Role</th>
-            <th scope="col">Emulated angle</th>
-            <th scope="col">Response</th>
-            <th scope="col">Peak of the pattern</th>
-            {nullAngleDeg != null ? <th scope="col">Pattern at the null ({formatAngle(nullAngleDeg)})</th> : null}
-          </tr>
-        </thead>
-        <tbody>
-          {series.map((s, i) => {
-            const peak = s.points.reduce((a, b) => (b.db > a.db ? b : a));
-            const atNull = nullAngleDeg != null ? valueAt(s.points, nullAngleDeg) : null;
-            return (
-              <tr key={s.key}>
-                <th scope="row">{s.key}</th>
-                <td>{s.role}</td>
-                <td>{plotted[i]!.angleDeg === null ? 'non-physical' : formatAngle(plotted[i]!.angleDeg!)}</td>
-                <td>{signed(plotted[i]!.responseDb, 2)} dB</td>
-                <td>
-                  {signed(peak.db, 2)} dB at {formatAngle(peak.angleDeg, 0)}
-                </td>
-                {nullAngleDeg != null ? <td>{atNull === null ? '—' : `${signed(atNull, 2)} dB`}</td> : null}
-              </tr>
-            );
-          })}
-        </tbody>
-      </table>
+      {/* A table ignores the 1 px width of sr-only and would widen the page: the wrapper carries it instead. */}
+      <div className="sr-only">
+        <table>
+          <caption>Beam pattern key values (responses below {PLOT_FLOOR_DB} dB are drawn at {PLOT_FLOOR_DB} dB)</caption>
+          <thead>
+            <tr>
+              <th scope="col">Source</th>
+              <th scope="col">Role</th>
+              <th scope="col">Emulated angle</th>
+              <th scope="col">Response</th>
+              <th scope="col">Peak of the pattern</th>
+              {nullAngleDeg != null ? <th scope="col">Pattern at the null ({formatAngle(nullAngleDeg)})</th> : null}
+            </tr>
+          </thead>
+          <tbody>
+            {series.map((s, i) => {
+              const peak = s.points.reduce((a, b) => (b.db > a.db ? b : a));
+              const atNull = nullAngleDeg != null ? valueAt(s.points, nullAngleDeg) : null;
+              return (
+                <tr key={s.key}>
+                  <th scope="row">{s.key}</th>
+                  <td>{s.role}</td>
+                  <td>{plotted[i]!.angleDeg === null ? 'non-physical' : formatAngle(plotted[i]!.angleDeg!)}</td>
+                  <td>{signed(plotted[i]!.responseDb, 2)} dB</td>
+                  <td>
+                    {signed(peak.db, 2)} dB at {formatAngle(peak.angleDeg, 0)}
+                  </td>
+                  {nullAngleDeg != null ? <td>{atNull === null ? '—' : `${signed(atNull, 2)} dB`}</td> : null}
+                </tr>
+              );
+            })}
+          </tbody>
+        </table>
+      </div>
     </figure>
   );
 }
