@@ -1,22 +1,16 @@
-import { Link, useSearchParams } from 'react-router-dom';
-import { instrumentKindLabels, instrumentKinds, instrumentStatusLabels, instrumentStatuses, type InstrumentKind, type InstrumentStatus } from '@shared/schemas/instruments';
+import { Link } from 'react-router-dom';
+import { instrumentKindLabels, instrumentKinds, instrumentStatusLabels, instrumentStatuses } from '@shared/schemas/instruments';
 import { SelectField, TextField } from '@/components/ui/field';
+import { useSearchParam } from '@/hooks/use-search-param';
 import { useSignedInUser } from '@/features/auth/hooks/use-signed-in-user';
 import { InstrumentTable } from '@/features/instruments/components/instrument-table';
 
 export function InstrumentsRoute() {
   const user = useSignedInUser();
-  const [params, setParams] = useSearchParams();
-  const kind = (instrumentKinds as readonly string[]).includes(params.get('kind') ?? '') ? (params.get('kind') as InstrumentKind) : undefined;
-  const status = (instrumentStatuses as readonly string[]).includes(params.get('status') ?? '') ? (params.get('status') as InstrumentStatus) : undefined;
-  const search = params.get('q') ?? '';
-  const setParam = (key: string, value: string) =>
-    setParams((prev) => {
-      const next = new URLSearchParams(prev);
-      if (value) next.set(key, value);
-      else next.delete(key);
-      return next;
-    }, { replace: true });
+  const [kind, setKind] = useSearchParam('kind', instrumentKinds);
+  const [status, setStatus] = useSearchParam('status', instrumentStatuses);
+  const [q, setSearch] = useSearchParam('q');
+  const search = q ?? '';
 
   return (
     <div className="space-y-5">
@@ -30,12 +24,12 @@ export function InstrumentsRoute() {
         ) : null}
       </div>
       <div className="grid gap-3 sm:grid-cols-[2fr_1fr_1fr]">
-        <TextField label="Search" type="search" placeholder="Tag, name, location…" value={search} onChange={(e) => setParam('q', e.target.value)} />
-        <SelectField label="Kind" value={kind ?? ''} onChange={(e) => setParam('kind', e.target.value)}>
+        <TextField label="Search" type="search" placeholder="Tag, name, location…" value={search} onChange={(e) => setSearch(e.target.value)} />
+        <SelectField label="Kind" value={kind ?? ''} onChange={(e) => setKind(e.target.value)}>
           <option value="">All kinds</option>
           {instrumentKinds.map((k) => <option key={k} value={k}>{instrumentKindLabels[k]}</option>)}
         </SelectField>
-        <SelectField label="Status" value={status ?? ''} onChange={(e) => setParam('status', e.target.value)}>
+        <SelectField label="Status" value={status ?? ''} onChange={(e) => setStatus(e.target.value)}>
           <option value="">Any status</option>
           {instrumentStatuses.map((s) => <option key={s} value={s}>{instrumentStatusLabels[s]}</option>)}
         </SelectField>

@@ -1,23 +1,17 @@
-import { Link, useSearchParams } from 'react-router-dom';
-import { partKindLabels, partKinds, partStatusLabels, partStatuses, type PartKind, type PartStatus } from '@shared/schemas/parts';
+import { Link } from 'react-router-dom';
+import { partKindLabels, partKinds, partStatusLabels, partStatuses } from '@shared/schemas/parts';
 import { SelectField, TextField } from '@/components/ui/field';
+import { useSearchParam } from '@/hooks/use-search-param';
 import { useSignedInUser } from '@/features/auth/hooks/use-signed-in-user';
 import { PartTable } from '@/features/parts/components/part-table';
 import { PartsCsv } from '@/features/parts/components/parts-csv';
 
 export function PartsRoute() {
   const user = useSignedInUser();
-  const [params, setParams] = useSearchParams();
-  const kind = (partKinds as readonly string[]).includes(params.get('kind') ?? '') ? (params.get('kind') as PartKind) : undefined;
-  const status = (partStatuses as readonly string[]).includes(params.get('status') ?? '') ? (params.get('status') as PartStatus) : undefined;
-  const search = params.get('q') ?? '';
-  const setParam = (key: string, value: string) =>
-    setParams((prev) => {
-      const next = new URLSearchParams(prev);
-      if (value) next.set(key, value);
-      else next.delete(key);
-      return next;
-    }, { replace: true });
+  const [kind, setKind] = useSearchParam('kind', partKinds);
+  const [status, setStatus] = useSearchParam('status', partStatuses);
+  const [q, setSearch] = useSearchParam('q');
+  const search = q ?? '';
 
   return (
     <div className="space-y-5">
@@ -34,12 +28,12 @@ export function PartsRoute() {
         </div>
       </div>
       <div className="grid gap-3 sm:grid-cols-[2fr_1fr_1fr]">
-        <TextField label="Search" type="search" placeholder="Tag, description…" value={search} onChange={(e) => setParam('q', e.target.value)} />
-        <SelectField label="Kind" value={kind ?? ''} onChange={(e) => setParam('kind', e.target.value)}>
+        <TextField label="Search" type="search" placeholder="Tag, description…" value={search} onChange={(e) => setSearch(e.target.value)} />
+        <SelectField label="Kind" value={kind ?? ''} onChange={(e) => setKind(e.target.value)}>
           <option value="">All kinds</option>
           {partKinds.map((k) => <option key={k} value={k}>{partKindLabels[k]}</option>)}
         </SelectField>
-        <SelectField label="Status" value={status ?? ''} onChange={(e) => setParam('status', e.target.value)}>
+        <SelectField label="Status" value={status ?? ''} onChange={(e) => setStatus(e.target.value)}>
           <option value="">Any status</option>
           {partStatuses.map((s) => <option key={s} value={s}>{partStatusLabels[s]}</option>)}
         </SelectField>

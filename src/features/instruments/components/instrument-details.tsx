@@ -1,16 +1,8 @@
 import { instrumentKindLabels, instrumentStatusLabels, type Instrument } from '@shared/schemas/instruments';
+import { Fact } from '@/components/ui/fact';
 import { Badge, Notice, Panel } from '@/components/ui/feedback';
 import { formatDate, formatDbm, formatRange } from '@/utils/format';
 import { CalibrationBadge } from './calibration-badge';
-
-function Fact({ label, children }: { label: string; children: React.ReactNode }) {
-  return (
-    <div>
-      <dt className="text-caption font-semibold uppercase tracking-wide text-ink-500">{label}</dt>
-      <dd className="mt-0.5 text-body text-ink-800">{children}</dd>
-    </div>
-  );
-}
 
 export function InstrumentDetails({ instrument: i }: { instrument: Instrument }) {
   return (

@@ -1,16 +1,8 @@
 import { dielectricLabels } from '@shared/domain/cable';
 import { connectorLabels, partKindLabels, partStatusLabels, type Part } from '@shared/schemas/parts';
+import { Fact } from '@/components/ui/fact';
 import { Badge, Notice, Panel } from '@/components/ui/feedback';
 import { formatDate, formatDb, formatDbm, formatHz, formatMm, formatPs, formatRange } from '@/utils/format';
-
-function Fact({ label, children }: { label: string; children: React.ReactNode }) {
-  return (
-    <div>
-      <dt className="text-caption font-semibold uppercase tracking-wide text-ink-500">{label}</dt>
-      <dd className="mt-0.5 text-body text-ink-800">{children}</dd>
-    </div>
-  );
-}
 
 export function PartDetails({ part: p }: { part: Part }) {
   return (
