@@ -91,7 +91,7 @@ describe('inventory (lab manager)', () => {
     } finally {
       rmSync(dir, { recursive: true, force: true });
     }
-  });
+  }, 90_000);
 
   it('filters the instrument table by kind and sorts it, and shows calibration badges', async () => {
     await signInThroughForm(page, live.url, 'manager@lab.test');
