@@ -1,6 +1,6 @@
 // npm run bench: the calendar's range read (GET /api/bookings, one week, 10 instruments) under load through the
 // API and, with the same SQL, straight in PostgreSQL, at 10k and 1M bookings, on a throwaway cluster.
-// `npm run bench -- 10000` measures only the sizes given.
+// `node scripts/bench.mjs 10000` measures only the sizes given.
 import { randomBytes } from 'node:crypto';
 import { mkdirSync, mkdtempSync, rmSync } from 'node:fs';
 import os from 'node:os';
@@ -15,6 +15,10 @@ const { CONNECTIONS, DURATION_S, loadApi, routeSql, runPgbench, signIn, startSer
 const { cpuReport, cpuSnapshot } = await import('./bench/cpu.mjs');
 
 const sizes = process.argv.length > 2 ? process.argv.slice(2).map(Number) : [10_000, 1_000_000];
+if (!sizes.every((n) => Number.isInteger(n) && n > 0)) {
+  console.error('usage: node scripts/bench.mjs [bookings …]   e.g. node scripts/bench.mjs 10000 1000000');
+  process.exit(2);
+}
 const TARGETS = { ratio: 0.35, p99Ms: 40, slowdown: 1.5 };
 
 buildServer();
@@ -85,7 +89,7 @@ async function measureApi({ count, database, env, week, instrumentIds }) {
 
   step(`${database}: autocannon, ${CONNECTIONS} connections, ${DURATION_S} s (after a 3 s warm-up)…`);
   const cores = os.cpus().length;
-  const cpu = { snapshot: () => cpuSnapshot(server.child.pid, cluster), report: (a, b, n, s) => cpuReport(a, b, n, s, cores) };
+  const cpu = { snapshot: () => cpuSnapshot(server.child.pid, cluster), report: (a, b, n) => cpuReport(a, b, n, cores) };
   const api = await loadApi(url, cookie, cpu);
   step(`${database}: ${api.rps.toFixed(0)} requests/s, p50 ${api.p50} ms, p99 ${api.p99} ms, non-2xx ${api.non2xx}, errors ${api.errors}`);
   step(`${database}: CPU per request: server ${api.serverMs.toFixed(1)} ms, PostgreSQL ${api.postgresMs.toFixed(1)} ms; ` +
@@ -102,18 +106,21 @@ async function measureApi({ count, database, env, week, instrumentIds }) {
 async function measurePgbench({ count, database, connection, week, userId, instrumentIds }) {
   const sql = await routeSql({ from: week.from, to: week.to, instrumentIds, viewerId: userId, isManager: false, seesDetails: true });
   step(`${database}: pgbench with the route's SQL, ${CONNECTIONS} clients, ${DURATION_S} s…`);
+  const before = cpuSnapshot(null, cluster);
   const db = await runPgbench({ sql, file: path.join(temp, `range-${count}.sql`), connection, bin: cluster.bin, onChild: (c) => (pgbench = c) });
   pgbench = null;
-  step(`${database}: pgbench ${db.tps.toFixed(0)} TPS, latency average ${db.latencyMs} ms`);
-  return { tps: db.tps, pgLatencyMs: db.latencyMs };
+  const { othersShare } = cpuReport(before, cpuSnapshot(null, cluster), 1, os.cpus().length);
+  step(`${database}: pgbench ${db.tps.toFixed(0)} TPS, latency average ${db.latencyMs} ms; other processes took ${(100 * othersShare).toFixed(0)} % meanwhile`);
+  return { tps: db.tps, pgLatencyMs: db.latencyMs, pgOthersShare: othersShare };
 }
 
 function report(results) {
   const mark = (ok) => (ok ? 'met' : 'NOT met');
-  const table = [['bookings', 'rows', 'req/s', 'p50 ms', 'p99 ms', 'non-2xx', 'pgbench TPS', 'API/pgbench', 'CPU ms/req srv+pg', 'others']];
+  const percent = (share) => `${(100 * share).toFixed(0)} %`;
+  const table = [['bookings', 'rows', 'req/s', 'p50 ms', 'p99 ms', 'non-2xx', 'CPU ms/req srv+pg', 'others', 'pgbench TPS', 'others', 'API/pgbench']];
   for (const r of results) {
-    table.push([r.count.toLocaleString('en'), r.rows, r.rps.toFixed(0), r.p50, r.p99, r.non2xx + r.errors, r.tps.toFixed(0),
-      (r.rps / r.tps).toFixed(2), `${r.serverMs.toFixed(1)}+${r.postgresMs.toFixed(1)}`, `${(100 * r.othersShare).toFixed(0)} %`]);
+    table.push([r.count.toLocaleString('en'), r.rows, r.rps.toFixed(0), r.p50, r.p99, r.non2xx + r.errors,
+      `${r.serverMs.toFixed(1)}+${r.postgresMs.toFixed(1)}`, percent(r.othersShare), r.tps.toFixed(0), percent(r.pgOthersShare), (r.rps / r.tps).toFixed(2)]);
   }
   const widths = table[0].map((_, c) => Math.max(...table.map((row) => String(row[c]).length)));
   console.log(`\nGET /api/bookings, one week × 10 instruments, ${CONNECTIONS} connections, ${DURATION_S} s, ${os.cpus().length} cores, ${new Date().toISOString().slice(0, 10)}`);

@@ -57,7 +57,7 @@ export async function loadApi(url, cookie, cpu) {
   await autocannon({ url, headers, connections: CONNECTIONS, duration: 3 });
   const before = cpu.snapshot();
   const r = await autocannon({ url, headers, connections: CONNECTIONS, duration: DURATION_S });
-  const usage = cpu.report(before, cpu.snapshot(), r.requests.total, r.duration);
+  const usage = cpu.report(before, cpu.snapshot(), r.requests.total);
   return { rps: r.requests.average, p50: r.latency.p50, p99: r.latency.p99, non2xx: r.non2xx, errors: r.errors + r.timeouts, ...usage };
 }
 
