@@ -3,6 +3,7 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { markNoShows } from '../../server/features/bookings/bookings.service.js';
 import { signIn, startTestApp, type TestApp } from '../support/test-app.js';
+import { at } from '../support/time.js';
 
 let t: TestApp;
 let manager: Awaited<ReturnType<typeof signIn>>;
@@ -25,13 +26,6 @@ beforeAll(async () => {
 });
 afterAll(() => t.close());
 
-/** An instant `days` from now at the given UTC hour: tests book late evenings, away from the demo's day bookings. */
-function at(days: number, hourUtc: number, minute = 0): string {
-  const d = new Date();
-  d.setUTCDate(d.getUTCDate() + days);
-  d.setUTCHours(hourUtc, minute, 0, 0);
-  return d.toISOString();
-}
 
 type Who = Awaited<ReturnType<typeof signIn>>;
 const book = (who: Who, body: Record<string, unknown>) => who.agent.post('/api/bookings').set('x-csrf-token', who.csrf).send({ purpose: 'Measurement', ...body });

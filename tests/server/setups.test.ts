@@ -1,6 +1,7 @@
 import { QueryTypes } from 'sequelize';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { signIn, startTestApp, type TestApp } from '../support/test-app.js';
+import { at } from '../support/time.js';
 
 let t: TestApp;
 let manager: Awaited<ReturnType<typeof signIn>>;
@@ -13,12 +14,6 @@ let bookingA: number; // researcher, SG-2, day+3 19:30–20:30 UTC
 let bookingB: number; // researcher2, SG-1, day+3 19:00–21:00 UTC (overlaps A)
 let bookingC: number; // researcher, SG-2, day+4
 
-function at(days: number, hourUtc: number, minute = 0): string {
-  const d = new Date();
-  d.setUTCDate(d.getUTCDate() + days);
-  d.setUTCHours(hourUtc, minute, 0, 0);
-  return d.toISOString();
-}
 type Who = Awaited<ReturnType<typeof signIn>>;
 const book = async (who: Who, tagName: string, startsAt: string, endsAt: string) => {
   const res = await who.agent.post('/api/bookings').set('x-csrf-token', who.csrf).send({ instrumentIds: [tag[tagName]], startsAt, endsAt, purpose: 'Setup test' });
