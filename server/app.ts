@@ -11,6 +11,7 @@ import type { Config } from './config.js';
 import { analysisRouter } from './features/analysis/analysis.routes.js';
 import { authRouter } from './features/auth/auth.routes.js';
 import { feedsRouter } from './features/feeds/feeds.routes.js';
+import { mailboxRouter, outboxRouter } from './features/mail/mailbox.routes.js';
 import { bookingsRouter } from './features/bookings/bookings.routes.js';
 import { instrumentsRouter } from './features/instruments/instruments.routes.js';
 import { labRouter } from './features/lab/lab.routes.js';
@@ -118,6 +119,8 @@ export function createApp({ config, sequelize, sessionPool }: AppDeps): Express 
   app.use('/api/waitlist', booking.waitlist);
   app.use('/api/photos', photosRouter(config.uploads));
   app.use('/api/feeds', feedsRouter({ publicUrl: config.publicUrl, labName: config.lab.name }));
+  app.use('/api/mailbox', mailboxRouter({ captureInUse: config.mail.captureInUse }));
+  app.use('/api/outbox', outboxRouter());
   app.use('/api', apiNotFound);
 
   // The built client: hashed assets cached for long, index.html never, every other path is the SPA.

@@ -23,6 +23,9 @@ const envSchema = z.object({
   UPLOADS_DIR: z.string().min(1).default('uploads'),
   PHOTO_MAX_BYTES: z.coerce.number().int().positive().default(15 * 1024 * 1024),
   PHOTO_MAX_PIXELS: z.coerce.number().int().positive().default(50_000_000),
+  SMTP_URL: z.string().regex(/^smtps?:\/\//, { error: 'must start with smtp:// or smtps://' }).optional(),
+  SMTP_CAPTURE_PORT: z.coerce.number().int().min(0).max(65535).default(2525),
+  MAIL_FROM: z.string().min(3).default('Skewbench <skewbench@lab.test>'),
 });
 
 export interface DbConfig {
@@ -42,6 +45,16 @@ export interface UploadsConfig {
   maxPhotoPixels: number;
 }
 
+export interface MailConfig {
+  /** The lab's SMTP relay; when unset, the local capture server receives all mail instead. */
+  smtpUrl: string | undefined;
+  /** Port of the local capture server on 127.0.0.1 (0: any free port). */
+  capturePort: number;
+  from: string;
+  /** True when mail goes to the local capture server (no SMTP_URL): the mail page and GET /api/mailbox work. */
+  captureInUse: boolean;
+}
+
 export interface Config {
   env: 'development' | 'production' | 'test';
   host: string;
@@ -57,6 +70,7 @@ export interface Config {
   logLevel: 'debug' | 'info' | 'warn' | 'error' | 'silent';
   /** Uploaded files: the folder (relative to the working directory unless absolute) and the photo limits. */
   uploads: UploadsConfig;
+  mail: MailConfig;
 }
 
 export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
@@ -95,5 +109,6 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     clientDist: e.CLIENT_DIST,
     logLevel: e.LOG_LEVEL,
     uploads: { dir: e.UPLOADS_DIR, maxPhotoBytes: e.PHOTO_MAX_BYTES, maxPhotoPixels: e.PHOTO_MAX_PIXELS },
+    mail: { smtpUrl: e.SMTP_URL, capturePort: e.SMTP_CAPTURE_PORT, from: e.MAIL_FROM, captureInUse: !e.SMTP_URL },
   };
 }

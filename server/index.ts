@@ -4,6 +4,7 @@ import { loadConfig } from './config.js';
 import { connectDatabase } from './db/connect.js';
 import { activeDemoAccounts } from './db/seeders/demo-lab.js';
 import { markNoShows } from './features/bookings/bookings.service.js';
+import { startMail } from './features/mail/mail.runtime.js';
 import { logger, setLogLevel } from './lib/logger.js';
 
 const config = loadConfig();
@@ -11,11 +12,17 @@ setLogLevel(config.logLevel);
 const db = connectDatabase(config);
 await db.sequelize.authenticate();
 
+const mail = await startMail(db.sequelize, config.mail, config.publicUrl).catch((err: NodeJS.ErrnoException) => {
+  const hint = err.code === 'EADDRINUSE' ? ` (port ${config.mail.capturePort} is taken: set SMTP_CAPTURE_PORT to a free port, or SMTP_URL to the lab's relay)` : '';
+  console.error(`Skewbench could not start its mail: ${err.message}${hint}`);
+  process.exit(1);
+});
+
 const app = createApp({ config, sequelize: db.sequelize, sessionPool: db.sessionPool });
 const server = app.listen(config.port, config.host, async () => {
   const address = server.address();
   const port = typeof address === 'object' && address ? address.port : config.port;
-  const lines = [`Skewbench is running at http://${config.host}:${port}  (${config.lab.name})`];
+  const lines = [`Skewbench is running at http://${config.host}:${port}  (${config.lab.name})`, `Mail: ${mail.describe}.`];
   if (process.env.SKEWBENCH_SHOW_DEMO === '1') {
     const accounts = await activeDemoAccounts();
     if (accounts.length) {
@@ -43,6 +50,7 @@ async function stop(signal: string) {
   clearInterval(noShowSweep);
   server.close();
   server.closeAllConnections();
+  await mail.stop();
   await db.close();
   process.exit(0);
 }

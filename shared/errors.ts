@@ -23,6 +23,8 @@ export const errorCodes = [
   'internal',
   'invalid_image',
   'image_too_large',
+  'mail_capture_off',
+  'token_invalid',
 ] as const;
 export type ErrorCode = (typeof errorCodes)[number];
 

@@ -6,6 +6,7 @@ import { PartModel } from '../features/parts/part.model.js';
 import { SetupModel } from '../features/setups/setup.model.js';
 import { UserModel } from '../features/people/user.model.js';
 import { PhotoModel } from '../features/photos/photo.model.js';
+import { OutboxModel } from '../features/mail/mail.model.js';
 
 /** Register every feature's model on the instance, then wire associations once all exist. */
 export function initModels(sequelize: Sequelize): void {
@@ -17,6 +18,7 @@ export function initModels(sequelize: Sequelize): void {
   SetupModel.initModel(sequelize);
   PhotoModel.initModel(sequelize);
   FeedModel.initModel(sequelize);
+  OutboxModel.initModel(sequelize);
   // The photos service reads the uploader's name through `owner`, without importing the user model.
   PhotoModel.belongsTo(UserModel, { as: 'owner', foreignKey: 'ownerId' });
 }

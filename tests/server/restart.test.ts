@@ -45,6 +45,7 @@ beforeAll(async () => {
     NODE_ENV: 'test', LOG_LEVEL: 'warn', HOST: '127.0.0.1', PORT: String(port),
     PGHOST: c.host, PGPORT: String(c.port), PGUSER: c.user, PGPASSWORD: c.password, PGDATABASE: await createTestDatabase(),
     SESSION_SECRET: 'restart-test-session-secret',
+    SMTP_CAPTURE_PORT: '0',
   };
 });
 

@@ -1,8 +1,8 @@
 import { existsSync, mkdirSync } from 'node:fs';
-import type { AddressInfo } from 'node:net';
 import type { Server } from 'node:http';
 import path from 'node:path';
 import { chromium, type Browser, type Page } from 'playwright-core';
+import { freePort } from '../../scripts/lib/postgres.mjs';
 import { startTestApp, DEMO_PASSWORD, type TestApp } from './test-app.js';
 
 const root = path.resolve(import.meta.dirname, '..', '..');
@@ -22,15 +22,18 @@ export interface LiveApp extends TestApp {
   server: Server;
 }
 
-/** The real app, built client included, listening on a free loopback port. */
+/**
+ * The real app, built client included, listening on a free loopback port, with its mail running (local capture
+ * and outbox worker) and PUBLIC_URL pointing at it, so links in captured mail open this app.
+ */
 export async function startLiveApp(): Promise<LiveApp> {
   const dist = process.env.TEST_CLIENT_DIST ?? '';
   if (!existsSync(path.join(dist, 'index.html'))) throw new Error('The built client is missing: `npm test` builds it first.');
-  const t = await startTestApp({ CLIENT_DIST: dist });
+  const port = await freePort();
+  const t = await startTestApp({ CLIENT_DIST: dist, PUBLIC_URL: `http://127.0.0.1:${port}` }, { mail: true });
   const server = await new Promise<Server>((resolve) => {
-    const s = t.app.listen(0, '127.0.0.1', () => resolve(s));
+    const s = t.app.listen(port, '127.0.0.1', () => resolve(s));
   });
-  const { port } = server.address() as AddressInfo;
   return {
     ...t,
     server,

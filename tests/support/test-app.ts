@@ -5,6 +5,7 @@ import type { Express } from 'express';
 import { createApp } from '../../server/app.js';
 import { connectDatabase } from '../../server/db/connect.js';
 import type { Config } from '../../server/config.js';
+import { startMail, type MailRuntime } from '../../server/features/mail/mail.runtime.js';
 import { TEMPLATE_DB, testCluster, testConfig } from './test-env.js';
 
 export const DEMO_PASSWORD = 'skewbench-demo';
@@ -34,16 +35,31 @@ export interface TestApp {
   app: Express;
   config: Config;
   db: ReturnType<typeof connectDatabase>;
+  /** The outbox worker and the local SMTP capture (or SMTP_URL's transport), when asked for with `mail: true`. */
+  mail: MailRuntime | null;
   close(): Promise<void>;
 }
 
-/** The real app on its own database in the test cluster. */
-export async function startTestApp(overrides: Record<string, string> = {}): Promise<TestApp> {
+/**
+ * The real app on its own database in the test cluster. With `mail: true` the process's mail runs as in
+ * `npm start`: the local capture server on a free port (unless SMTP_URL is given) and the outbox worker.
+ */
+export async function startTestApp(overrides: Record<string, string> = {}, options: { mail?: boolean; mailPollMs?: number } = {}): Promise<TestApp> {
   const database = await createTestDatabase();
   const config = testConfig(database, overrides);
   const db = connectDatabase(config);
   const app = createApp({ config, sequelize: db.sequelize, sessionPool: db.sessionPool });
-  return { app, config, db, close: () => db.close() };
+  const mail = options.mail ? await startMail(db.sequelize, config.mail, config.publicUrl, { pollMs: options.mailPollMs ?? 250 }) : null;
+  return {
+    app,
+    config,
+    db,
+    mail,
+    close: async () => {
+      await mail?.stop();
+      await db.close();
+    },
+  };
 }
 
 /** A supertest agent (keeps cookies) with the session's CSRF token. */

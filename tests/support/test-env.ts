@@ -25,6 +25,8 @@ export function testConfig(database: string, overrides: Record<string, string> =
     SESSION_SECRET: 'test-session-secret-0123456789',
     // The demo's seeded photos live in the test run's own folder, never in the checkout's uploads/.
     UPLOADS_DIR: process.env.TEST_UPLOADS_DIR ?? '',
+    // Each test app that runs the local mail capture takes a free port of its own.
+    SMTP_CAPTURE_PORT: '0',
     ...overrides,
   });
 }

@@ -36,7 +36,8 @@ let dummyHash: Promise<string> | undefined;
  */
 export async function authenticate(email: string, password: string): Promise<SessionUser | null> {
   const row = await UserModel.findOne({ where: { email: email.trim().toLowerCase() } });
-  if (!row) {
+  if (!row || row.passwordHash === null) {
+    // Unknown, or invited and no password set yet.
     dummyHash ??= hashPassword('no-such-account-password');
     await bcrypt.compare(password, await dummyHash);
     return null;

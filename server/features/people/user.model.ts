@@ -6,8 +6,11 @@ export class UserModel extends Model<InferAttributes<UserModel>, InferCreationAt
   declare email: string;
   declare name: string;
   declare role: Role;
-  declare passwordHash: string;
+  /** bcrypt hash; null for an invited person who has not set a password yet. */
+  declare passwordHash: string | null;
   declare active: CreationOptional<boolean>;
+  /** Optional notifications switched off, e.g. {"bookingUpdates": false}; see shared/domain/notifications.ts. */
+  declare notificationSettings: CreationOptional<Record<string, boolean>>;
   declare lastSignInAt: CreationOptional<Date | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
@@ -19,8 +22,9 @@ export class UserModel extends Model<InferAttributes<UserModel>, InferCreationAt
         email: { type: DataTypes.TEXT, allowNull: false },
         name: { type: DataTypes.TEXT, allowNull: false },
         role: { type: DataTypes.TEXT, allowNull: false },
-        passwordHash: { type: DataTypes.TEXT, allowNull: false },
+        passwordHash: { type: DataTypes.TEXT, allowNull: true },
         active: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
+        notificationSettings: { type: DataTypes.JSONB, allowNull: false, defaultValue: {} },
         lastSignInAt: { type: DataTypes.DATE, allowNull: true },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
