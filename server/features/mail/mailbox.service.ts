@@ -39,7 +39,7 @@ export async function capturedAttachment(id: number, index: number): Promise<{ f
        FROM captured_mail m, jsonb_extract_path(m.attachments, :index) a WHERE m.id = :id`,
     { replacements: { id, index: String(index) }, type: QueryTypes.SELECT },
   );
-  if (!row) throw notFound('Attachment');
+  if (!row || row.content === null) throw notFound('Attachment');
   return { filename: row.filename, contentType: row.contentType, content: Buffer.from(row.content, 'base64') };
 }
 
