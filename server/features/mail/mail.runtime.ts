@@ -31,12 +31,12 @@ export async function startMail(sequelize: Sequelize, mail: MailConfig, publicUr
   let describe: string;
   if (mail.smtpUrl) {
     transport = nodemailer.createTransport(mail.smtpUrl);
-    describe = `mail is sent through ${redactSmtpUrl(mail.smtpUrl)}`;
+    describe = `sent through ${redactSmtpUrl(mail.smtpUrl)}`;
   } else {
     capture = await startMailCapture(sequelize, { port: mail.capturePort });
     // Plain SMTP on loopback (see smtp-capture.ts); short time-outs so a stopped capture is noticed quickly.
     transport = nodemailer.createTransport({ host: capture.host, port: capture.port, secure: false, ignoreTLS: true, connectionTimeout: 5000, greetingTimeout: 5000, socketTimeout: 10000 });
-    describe = `mail is captured locally on smtp://${capture.host}:${capture.port} and shown on the Mail page (set SMTP_URL to use the lab's relay)`;
+    describe = `captured locally on smtp://${capture.host}:${capture.port} and shown on the Mail page (set SMTP_URL to send through the lab's relay)`;
   }
   const worker = startOutboxWorker({ sequelize, transport, from: mail.from, messageIdHost: new URL(publicUrl).hostname || 'skewbench', pollMs: options.pollMs });
   return {
