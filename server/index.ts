@@ -4,6 +4,7 @@ import { loadConfig } from './config.js';
 import { connectDatabase } from './db/connect.js';
 import { activeDemoAccounts } from './db/seeders/demo-lab.js';
 import { markNoShows } from './features/bookings/bookings.service.js';
+import { runDailyDigests } from './features/mail/digests.service.js';
 import { startMail } from './features/mail/mail.runtime.js';
 import { logger, setLogLevel } from './lib/logger.js';
 
@@ -34,11 +35,14 @@ const server = app.listen(config.port, config.host, async () => {
   console.log(lines.join('\n'));
 });
 
-// Bookings not checked in 30 minutes after their start become no-shows and release their slot.
+// Bookings not checked in 30 minutes after their start become no-shows and release their slot; once per lab day
+// from 07:00 the managers get their calibration digest. Both queue their messages as they go.
+const lab = { ...config.lab, publicUrl: config.publicUrl };
 const noShowSweep = setInterval(() => {
-  markNoShows(new Date())
+  markNoShows(new Date(), lab)
     .then((n) => n && logger.info(`marked ${n} booking(s) as no-show`))
     .catch((err) => logger.warn(`no-show sweep failed: ${(err as Error).message}`));
+  runDailyDigests(new Date(), lab).catch((err) => logger.warn(`daily digests failed: ${(err as Error).message}`));
 }, 60_000);
 noShowSweep.unref();
 

@@ -183,8 +183,9 @@ describe('lifecycle', () => {
     const start = new Date(Date.now() + 2 * 60_000);
     const res = await book(researcher, { instrumentIds: [tag['SG-1']], startsAt: start.toISOString(), endsAt: new Date(start.getTime() + 2 * 3600_000).toISOString() });
     expect(res.status).toBe(201);
-    expect(await markNoShows(new Date(start.getTime() + 29 * 60_000))).toBe(0);
-    expect(await markNoShows(new Date(start.getTime() + 31 * 60_000))).toBeGreaterThanOrEqual(1);
+    const lab = { ...t.config.lab, publicUrl: t.config.publicUrl };
+    expect(await markNoShows(new Date(start.getTime() + 29 * 60_000), lab)).toBe(0);
+    expect(await markNoShows(new Date(start.getTime() + 31 * 60_000), lab)).toBeGreaterThanOrEqual(1);
     const detail = await researcher.agent.get(`/api/bookings/${res.body.booking.id}`).expect(200);
     expect(detail.body.booking.status).toBe('no-show');
     expect(detail.body.events.at(-1)).toMatchObject({ action: 'no-show', actor: null });

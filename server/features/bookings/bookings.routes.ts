@@ -10,11 +10,16 @@ import {
 import { idParamsSchema } from '../../../shared/schemas/people.js';
 import { currentUser, requireRole, requireUser } from '../../lib/auth.js';
 import { validate } from '../../lib/validate.js';
+import type { MailLab } from '../mail/templates/compose.js';
 import * as bookings from './bookings.service.js';
+import { claimWaitlistOffer } from './waitlist-claim.service.js';
 import * as waitlist from './waitlist.service.js';
 
-/** Bookings and maintenance blocks: /api/bookings; the waitlist: /api/waitlist. */
-export function bookingsRouter({ timeZone, now = () => new Date() }: { timeZone: string; now?: () => Date }): { bookings: Router; waitlist: Router } {
+/**
+ * Bookings and maintenance blocks: /api/bookings; the waitlist: /api/waitlist. `lab` (name and PUBLIC_URL) goes
+ * into the messages the changes queue.
+ */
+export function bookingsRouter({ timeZone, lab, now = () => new Date() }: { timeZone: string; lab: MailLab; now?: () => Date }): { bookings: Router; waitlist: Router } {
   const clock = () => ({ now: now(), timeZone });
   const b = Router();
   b.use(requireUser);
@@ -26,22 +31,22 @@ export function bookingsRouter({ timeZone, now = () => new Date() }: { timeZone:
     res.json(await bookings.myBookings(currentUser(res.locals), now()));
   });
   b.post('/', validate({ body: createBookingInputSchema }), async (_req, res) => {
-    res.status(201).json({ booking: await bookings.createBooking(currentUser(res.locals), res.locals.body, clock()) });
+    res.status(201).json({ booking: await bookings.createBooking(currentUser(res.locals), res.locals.body, clock(), lab) });
   });
   b.get('/:id', validate({ params: idParamsSchema }), async (_req, res) => {
     res.json(await bookings.getBooking(currentUser(res.locals), res.locals.params.id));
   });
   b.patch('/:id', requireRole('researcher'), validate({ params: idParamsSchema, body: updateBookingInputSchema }), async (_req, res) => {
-    res.json({ booking: await bookings.updateBooking(currentUser(res.locals), res.locals.params.id, res.locals.body, clock()) });
+    res.json({ booking: await bookings.updateBooking(currentUser(res.locals), res.locals.params.id, res.locals.body, clock(), lab) });
   });
   b.post('/:id/check-in', requireRole('researcher'), validate({ params: idParamsSchema }), async (_req, res) => {
     res.json({ booking: await bookings.checkIn(currentUser(res.locals), res.locals.params.id, clock()) });
   });
   b.post('/:id/check-out', requireRole('researcher'), validate({ params: idParamsSchema, body: checkOutInputSchema }), async (_req, res) => {
-    res.json({ booking: await bookings.checkOut(currentUser(res.locals), res.locals.params.id, res.locals.body, clock()) });
+    res.json({ booking: await bookings.checkOut(currentUser(res.locals), res.locals.params.id, res.locals.body, clock(), lab) });
   });
   b.post('/:id/cancel', requireRole('researcher'), validate({ params: idParamsSchema, body: cancelInputSchema }), async (_req, res) => {
-    res.json({ booking: await bookings.cancelBooking(currentUser(res.locals), res.locals.params.id, res.locals.body.reason, clock()) });
+    res.json({ booking: await bookings.cancelBooking(currentUser(res.locals), res.locals.params.id, res.locals.body.reason, clock(), lab) });
   });
 
   const w = Router();
@@ -54,6 +59,10 @@ export function bookingsRouter({ timeZone, now = () => new Date() }: { timeZone:
   });
   w.post('/', validate({ body: createWaitlistInputSchema }), async (_req, res) => {
     res.status(201).json({ entry: await waitlist.joinWaitlist(currentUser(res.locals), res.locals.body, now()) });
+  });
+  // The link of a waitlist offer's message: books the freed slot if it is still free.
+  w.post('/:id/claim', requireRole('researcher'), validate({ params: idParamsSchema }), async (_req, res) => {
+    res.status(201).json({ booking: await claimWaitlistOffer(currentUser(res.locals), res.locals.params.id, clock(), lab) });
   });
   w.delete('/:id', requireRole('researcher'), validate({ params: idParamsSchema }), async (_req, res) => {
     await waitlist.leaveWaitlist(currentUser(res.locals), res.locals.params.id);

@@ -15,6 +15,8 @@ import {
 } from '../../../shared/schemas/bookings.js';
 import type { SessionUser } from '../../../shared/schemas/people.js';
 import { AppError, forbidden, notFound } from '../../lib/errors.js';
+import type { MailLab } from '../mail/templates/compose.js';
+import { mailLab, queueBookingCancelled, queueBookingChanged, queueBookingConfirmed, queueHandover, queueNoShow, type BookingMailLab } from './booking.mail.js';
 import { BookingModel } from './booking.model.js';
 import { bookingJson, rangeQuery } from './bookings.sql.js';
 import { offerFreedSlot } from './waitlist.service.js';
@@ -204,8 +206,16 @@ export interface Clock {
 /**
  * Book one or more instruments for one time range: all or nothing, in one transaction. The exclusion
  * constraint decides races between simultaneous requests; the loser gets the same 409 as a pre-checked clash.
+ * The owner's confirmation is queued in the same transaction; `inTransaction` runs first in it, so a caller
+ * (a waitlist claim) can lock and write its own rows all or nothing with the booking.
  */
-export async function createBooking(user: SessionUser, input: CreateBookingInput, clock: Clock): Promise<Booking> {
+export async function createBooking(
+  user: SessionUser,
+  input: CreateBookingInput,
+  clock: Clock,
+  lab: MailLab,
+  options: { inTransaction?: (transaction: Transaction) => Promise<void> } = {},
+): Promise<Booking> {
   const maintenance = input.kind === 'maintenance';
   if (!hasRole(user.role, 'researcher')) throw forbidden('Visitors cannot book instruments.');
   if (maintenance && user.role !== 'manager') throw forbidden('Only lab managers add maintenance blocks.');
@@ -218,6 +228,7 @@ export async function createBooking(user: SessionUser, input: CreateBookingInput
 
   try {
     const id = await db().transaction(async (transaction) => {
+      await options.inTransaction?.(transaction);
       const row = await BookingModel.create(
         {
           kind: maintenance ? 'maintenance' : 'booking',
@@ -240,6 +251,7 @@ export async function createBooking(user: SessionUser, input: CreateBookingInput
       }
       await audit(row.id, user.id, 'created', null, { instruments: instruments.map((i) => i.tag), startsAt: start.toISOString(), endsAt: end.toISOString(), purpose: input.purpose }, transaction);
       if (overridden) await audit(row.id, user.id, 'calibration-override', null, { instruments: instruments.filter((i) => i.calibrationDueOn).map((i) => `${i.tag} due ${i.calibrationDueOn}`) }, transaction);
+      await queueBookingConfirmed(transaction, mailLab(lab, clock.timeZone), row.id, clock.now);
       return row.id;
     });
     return oneBooking(user, id);
@@ -269,7 +281,7 @@ async function instrumentIdsOf(bookingId: number, transaction?: Transaction): Pr
 }
 
 /** Move a booking (drag, resize) or change its texts; every rule is checked again. */
-export async function updateBooking(user: SessionUser, id: number, patch: UpdateBookingInput, clock: Clock): Promise<Booking> {
+export async function updateBooking(user: SessionUser, id: number, patch: UpdateBookingInput, clock: Clock, lab: MailLab): Promise<Booking> {
   if (patch.overrideCalibration && user.role !== 'manager') throw forbidden('Only a lab manager may override an overdue calibration.');
   const current = await BookingModel.findByPk(id);
   if (!current) throw notFound('Booking');
@@ -304,10 +316,12 @@ export async function updateBooking(user: SessionUser, id: number, patch: Update
       if (changed.length) {
         await audit(id, user.id, moved ? 'moved' : 'edited', Object.fromEntries(changed.map((k) => [k, before[k as keyof typeof before]])), Object.fromEntries(changed.map((k) => [k, after[k as keyof typeof after]])), transaction);
       }
+      const site = mailLab(lab, clock.timeZone);
       if (moved) {
         // The part of the old slot that the move gave up may be what someone is waiting for.
-        for (const instrumentId of instruments.map((i) => i.id)) await offerFreedSlot(instrumentId, new Date(before.startsAt), new Date(before.endsAt), clock.now, transaction);
+        for (const instrumentId of instruments.map((i) => i.id)) await offerFreedSlot(instrumentId, new Date(before.startsAt), new Date(before.endsAt), clock.now, transaction, site);
       }
+      if (changed.length) await queueBookingChanged(transaction, site, id, user, { ...before, startsAt: new Date(before.startsAt), endsAt: new Date(before.endsAt) });
     });
   } catch (err) {
     if (isExclusionViolation(err)) throw clashError(await neighbours(user, instruments, start, end, id));
@@ -332,7 +346,8 @@ export async function checkIn(user: SessionUser, id: number, clock: Clock): Prom
 }
 
 /** Check out with a handover note; leaving early releases the rest of the slot. */
-export async function checkOut(user: SessionUser, id: number, input: CheckOutInput, clock: Clock): Promise<Booking> {
+export async function checkOut(user: SessionUser, id: number, input: CheckOutInput, clock: Clock, lab: MailLab): Promise<Booking> {
+  const site = mailLab(lab, clock.timeZone);
   await db().transaction(async (transaction) => {
     const row = await lockOwned(user, id, transaction);
     if (row.status !== 'checked-in') throw invalidState(row.status === 'confirmed' ? 'Check in before checking out.' : `This booking is ${row.status}.`);
@@ -345,32 +360,35 @@ export async function checkOut(user: SessionUser, id: number, input: CheckOutInp
            FROM instruments i WHERE i.id = bi.instrument_id AND bi.booking_id = :id`,
         { replacements: { now: clock.now, id }, transaction },
       );
-      for (const instrumentId of await instrumentIdsOf(id, transaction)) await offerFreedSlot(instrumentId, clock.now, row.endsAt, clock.now, transaction);
+      for (const instrumentId of await instrumentIdsOf(id, transaction)) await offerFreedSlot(instrumentId, clock.now, row.endsAt, clock.now, transaction, site);
     }
     await audit(id, user.id, 'checked-out', { status: 'checked-in' }, { status: 'completed', handoverNote: input.handoverNote, leftConnected: input.leftConnected ?? null }, transaction);
+    await queueHandover(transaction, site, id, user, clock.now);
   });
   return oneBooking(user, id);
 }
 
 /** Cancel (owner or manager) with a reason; the slot is freed at once and offered to whoever waits for it. */
-export async function cancelBooking(user: SessionUser, id: number, reason: string, clock: Clock): Promise<Booking> {
+export async function cancelBooking(user: SessionUser, id: number, reason: string, clock: Clock, lab: MailLab): Promise<Booking> {
+  const site = mailLab(lab, clock.timeZone);
   await db().transaction(async (transaction) => {
     const row = await lockOwned(user, id, transaction);
     if (row.status !== 'confirmed') throw invalidState(row.status === 'checked-in' ? 'This booking is in progress: check out instead.' : `This booking is already ${row.status}.`);
     await row.update({ status: 'cancelled', cancelReason: reason, cancelledAt: clock.now, cancelledBy: user.id }, { transaction });
     await db().query('UPDATE booking_instruments SET active = false WHERE booking_id = :id', { replacements: { id }, transaction });
     const from = clock.now > row.startsAt ? clock.now : row.startsAt;
-    for (const instrumentId of await instrumentIdsOf(id, transaction)) await offerFreedSlot(instrumentId, from, row.endsAt, clock.now, transaction);
+    for (const instrumentId of await instrumentIdsOf(id, transaction)) await offerFreedSlot(instrumentId, from, row.endsAt, clock.now, transaction, site);
     await audit(id, user.id, 'cancelled', { status: 'confirmed' }, { status: 'cancelled', reason }, transaction);
+    await queueBookingCancelled(transaction, site, id, user, reason);
   });
   return oneBooking(user, id);
 }
 
 /**
- * Mark bookings not checked in 30 minutes after their start as no-show and release the rest of their slot.
- * Run every minute by the server; returns how many were marked.
+ * Mark bookings not checked in 30 minutes after their start as no-show and release the rest of their slot; the
+ * owner is told, in the same transaction. Run every minute by the server; returns how many were marked.
  */
-export async function markNoShows(now: Date): Promise<number> {
+export async function markNoShows(now: Date, lab: BookingMailLab): Promise<number> {
   const due = await db().query<{ id: number; ends_at: Date }>(
     `SELECT id, ends_at FROM bookings WHERE status = 'confirmed' AND kind = 'booking' AND starts_at <= :cutoff`,
     { replacements: { cutoff: new Date(now.getTime() - NO_SHOW_AFTER_MINUTES * 60_000) }, type: QueryTypes.SELECT },
@@ -382,8 +400,9 @@ export async function markNoShows(now: Date): Promise<number> {
       if (!row || row.status !== 'confirmed') return;
       await row.update({ status: 'no-show' }, { transaction });
       await db().query('UPDATE booking_instruments SET active = false WHERE booking_id = :id', { replacements: { id }, transaction });
-      if (now < row.endsAt) for (const instrumentId of await instrumentIdsOf(id, transaction)) await offerFreedSlot(instrumentId, now, row.endsAt, now, transaction);
+      if (now < row.endsAt) for (const instrumentId of await instrumentIdsOf(id, transaction)) await offerFreedSlot(instrumentId, now, row.endsAt, now, transaction, lab);
       await audit(id, null, 'no-show', { status: 'confirmed' }, { status: 'no-show', releasedFrom: now.toISOString() }, transaction);
+      await queueNoShow(transaction, lab, id, now);
       marked += 1;
     });
   }

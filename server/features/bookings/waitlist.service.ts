@@ -3,6 +3,7 @@ import type { CreateWaitlistInput, WaitlistEntry } from '../../../shared/schemas
 import type { SessionUser } from '../../../shared/schemas/people.js';
 import { hasRole } from '../../../shared/domain/roles.js';
 import { AppError, forbidden, notFound } from '../../lib/errors.js';
+import { queueWaitlistOffer, type BookingMailLab } from './booking.mail.js';
 import { BookingModel } from './booking.model.js';
 
 const db = () => BookingModel.sequelize!;
@@ -64,9 +65,10 @@ export async function leaveWaitlist(user: SessionUser, id: number): Promise<void
 
 /**
  * A slot of an instrument became free (cancel, no-show, early check-out, move): offer it to the first person
- * waiting for an overlapping time. SKIP LOCKED keeps two freeing transactions from offering the same entry.
+ * waiting for an overlapping time, and queue their message with the claim link in the same transaction.
+ * SKIP LOCKED keeps two freeing transactions from offering the same entry.
  */
-export async function offerFreedSlot(instrumentId: number, from: Date, to: Date, now: Date, transaction: Transaction): Promise<number | null> {
+export async function offerFreedSlot(instrumentId: number, from: Date, to: Date, now: Date, transaction: Transaction, lab: BookingMailLab): Promise<number | null> {
   if (to <= now) return null;
   const [first] = await db().query<{ id: number }>(
     `SELECT id FROM waitlist_entries
@@ -77,5 +79,6 @@ export async function offerFreedSlot(instrumentId: number, from: Date, to: Date,
   );
   if (!first) return null;
   await db().query(`UPDATE waitlist_entries SET status = 'offered', offered_at = :now WHERE id = :id`, { replacements: { id: first.id, now }, transaction });
+  await queueWaitlistOffer(transaction, lab, first.id, { from, to }, now);
   return first.id;
 }

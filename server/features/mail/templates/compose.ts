@@ -18,6 +18,8 @@ export interface MailContent {
   facts?: [string, string][];
   /** Quoted blocks kept as written, e.g. a handover note: heading and text. */
   blocks?: { heading: string; text: string }[];
+  /** Further pages, as a list of links ("/instruments/3"), after the blocks. */
+  links?: { label: string; url: string }[];
   /** The main button, with an absolute or lab-relative URL ("/bookings/12"). */
   action?: { label: string; url: string };
   /** Further paragraphs after the button. */
@@ -51,6 +53,7 @@ export function composeMail(lab: MailLab, content: MailContent): RenderedMail {
   for (const block of content.blocks ?? []) {
     text.push(`${block.heading}:`, ...block.text.split('\n').map((line) => `  > ${line}`), '');
   }
+  if (content.links?.length) text.push(...content.links.map((l) => `  ${l.label}: ${absoluteUrl(lab, l.url)}`), '');
   if (content.action && actionUrl) text.push(`${content.action.label}: ${actionUrl}`, '');
   for (const p of content.after ?? []) text.push(p, '');
   text.push('-- ', `Skewbench · ${lab.name}`, ...content.footer, `${lab.publicUrl}/`);
@@ -70,6 +73,11 @@ export function composeMail(lab: MailLab, content: MailContent): RenderedMail {
         `<p style="margin:0 0 6px;font-weight:700">${escapeHtml(b.heading)}</p><div style="margin:0 0 16px;padding:10px 14px;background:${colours.quote};border-left:3px solid ${colours.accent};white-space:pre-wrap">${escapeHtml(b.text)}</div>`,
     )
     .join('');
+  const links = content.links?.length
+    ? `<ul style="margin:0 0 16px;padding-left:20px">${content.links
+        .map((l) => `<li style="margin:0 0 4px"><a href="${escapeHtml(absoluteUrl(lab, l.url))}" style="color:${colours.link}">${escapeHtml(l.label)}</a></li>`)
+        .join('')}</ul>`
+    : '';
   const action =
     content.action && actionUrl
       ? `<p style="margin:4px 0 18px"><a href="${escapeHtml(actionUrl)}" style="display:inline-block;padding:9px 16px;background:${colours.accent};color:#ffffff;border-radius:5px;text-decoration:none;font-weight:700">${escapeHtml(content.action.label)}</a></p><p style="margin:0 0 14px;font-size:13px;color:${colours.muted}">Or open ${escapeHtml(actionUrl)}</p>`
@@ -81,7 +89,7 @@ export function composeMail(lab: MailLab, content: MailContent): RenderedMail {
 <table role="presentation" width="100%" cellpadding="0" cellspacing="0" style="max-width:560px;background:#ffffff;border:1px solid ${colours.rule};border-radius:8px">
 <tr><td style="padding:14px 22px;border-bottom:3px solid ${colours.accent};font-weight:800;letter-spacing:0.02em">Skewbench <span style="font-weight:400;color:${colours.muted}">· ${escapeHtml(lab.name)}</span></td></tr>
 <tr><td style="padding:20px 22px">
-${p(greeting)}${content.lead.map((x) => p(x)).join('')}${facts}${blocks}${action}${(content.after ?? []).map((x) => p(x)).join('')}
+${p(greeting)}${content.lead.map((x) => p(x)).join('')}${facts}${blocks}${links}${action}${(content.after ?? []).map((x) => p(x)).join('')}
 </td></tr>
 <tr><td style="padding:12px 22px;border-top:1px solid ${colours.rule};font-size:12px;color:${colours.muted}">${content.footer.map((x) => escapeHtml(x)).join('<br>')}<br><a href="${escapeHtml(lab.publicUrl)}/" style="color:${colours.link}">${escapeHtml(lab.publicUrl)}</a></td></tr>
 </table></td></tr></table></body></html>`;

@@ -85,3 +85,15 @@ export function useLeaveWaitlist() {
     onSuccess: () => queryClient.invalidateQueries({ queryKey: bookingKeys.waitlist() }),
   });
 }
+
+/**
+ * Book the freed slot of an offered waitlist entry (the link of the offer's e-mail). The server books it through
+ * the normal booking rules and marks the entry fulfilled; 409 when the slot was taken again or the offer is closed.
+ */
+export function useClaimWaitlistOffer() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (entryId: number) => api(`/waitlist/${entryId}/claim`, { method: 'POST', schema: bookingResponseSchema }),
+    onSuccess: ({ booking }) => refreshAfterChange(queryClient, booking.id),
+  });
+}

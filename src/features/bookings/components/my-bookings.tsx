@@ -6,7 +6,7 @@ import { Button } from '@/components/ui/button';
 import { useLeaveWaitlist } from '../api/bookings.mutations';
 import { myBookingsOptions, myWaitlistOptions } from '../api/bookings.queries';
 import { instrumentTags } from '../utils/booking-text';
-import { formatLabRange, labDateOf } from '../utils/lab-time';
+import { formatLabRange } from '../utils/lab-time';
 import { BookingStatusBadge } from './booking-facts';
 
 function BookingList({ title, bookings, timeZone, empty }: { title: string; bookings: Booking[]; timeZone: string; empty: string }) {
@@ -56,7 +56,7 @@ const waitlistLabels: Record<WaitlistEntry['status'], { text: string; tone: 'inf
   fulfilled: { text: 'Booked', tone: 'muted' },
 };
 
-/** Slots the person waits for; an offered one links to the calendar on that day, to book it. */
+/** Slots the person waits for; an offered one links to the claim page, which books it if it is still free. */
 export function MyWaitlist({ timeZone }: { timeZone: string }) {
   const entries = useQuery(myWaitlistOptions());
   const leave = useLeaveWaitlist();
@@ -80,10 +80,7 @@ export function MyWaitlist({ timeZone }: { timeZone: string }) {
                   {entry.note ? <div className="text-caption text-ink-500">{entry.note}</div> : null}
                   {entry.status === 'offered' ? (
                     <div>
-                      <Link
-                        to={`/calendar?view=day&date=${labDateOf(entry.startsAt, timeZone)}&instruments=${entry.instrument.id}`}
-                        className="text-body font-semibold text-pass-700 underline underline-offset-4"
-                      >
+                      <Link to={`/waitlist/${entry.id}/claim`} className="text-body font-semibold text-pass-700 underline underline-offset-4">
                         The slot is free — book it
                       </Link>
                     </div>
