@@ -3,7 +3,7 @@ import { roles } from '../domain/roles.js';
 
 export const roleSchema = z.enum(roles, { error: 'Choose visitor, researcher or manager' });
 
-const emailSchema = z
+export const emailSchema = z
   .string({ error: 'Enter an e-mail address' })
   .trim()
   .toLowerCase()
@@ -31,6 +31,10 @@ export const userSchema = z.object({
   active: z.boolean(),
   createdAt: z.string(),
   lastSignInAt: z.string().nullable(),
+  /** True while the account has no password: the person was invited and has not accepted yet. */
+  invited: z.boolean(),
+  /** When the newest open invitation link expires (in the past: it expired); null when none is open. */
+  invitationExpiresAt: z.string().nullable(),
 });
 export type User = z.infer<typeof userSchema>;
 
@@ -45,6 +49,14 @@ export const createUserInputSchema = z.strictObject({
   password: newPasswordSchema,
 });
 export type CreateUserInput = z.infer<typeof createUserInputSchema>;
+
+/** POST /api/users/invitations: the account is created without a password and the person gets a link. */
+export const inviteUserInputSchema = z.strictObject({
+  email: emailSchema,
+  name: nameSchema,
+  role: roleSchema,
+});
+export type InviteUserInput = z.infer<typeof inviteUserInputSchema>;
 
 export const updateUserInputSchema = z
   .strictObject({
@@ -65,3 +77,10 @@ export const idParamsSchema = z.object({
 
 export const userListSchema = z.object({ users: z.array(userSchema) });
 export const userResponseSchema = z.object({ user: userSchema });
+
+export const invitationResponseSchema = z.object({
+  user: userSchema,
+  /** `resent`: the person was already invited; the older links no longer work. */
+  invitation: z.object({ expiresAt: z.string(), resent: z.boolean() }),
+});
+export type InvitationResponse = z.infer<typeof invitationResponseSchema>;

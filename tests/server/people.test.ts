@@ -130,8 +130,23 @@ describe('PATCH /api/users/:id', () => {
 });
 
 describe('GET /api/lab', () => {
-  it('tells anyone the lab name and time zone', async () => {
+  it('tells anyone the lab name and time zone, and that mail goes to the local capture', async () => {
     const res = await request(t.app).get('/api/lab').expect(200);
-    expect(res.body).toEqual({ name: t.config.lab.name, timeZone: t.config.lab.timeZone, publicUrl: t.config.publicUrl });
+    expect(res.body).toEqual({
+      name: t.config.lab.name,
+      timeZone: t.config.lab.timeZone,
+      publicUrl: t.config.publicUrl,
+      mail: { captureInUse: true, from: t.config.mail.from },
+    });
+  });
+
+  it('says the local capture is not in use when SMTP_URL names the lab relay', async () => {
+    const relay = await startTestApp({ SMTP_URL: 'smtp://relay.lab.test:25', MAIL_FROM: 'Bench <bench@lab.test>' });
+    try {
+      const res = await request(relay.app).get('/api/lab').expect(200);
+      expect(res.body.mail).toEqual({ captureInUse: false, from: 'Bench <bench@lab.test>' });
+    } finally {
+      await relay.close();
+    }
   });
 });

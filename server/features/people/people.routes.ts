@@ -1,11 +1,13 @@
 import { Router } from 'express';
-import { createUserInputSchema, idParamsSchema, updateUserInputSchema } from '../../../shared/schemas/people.js';
-import { requireRole } from '../../lib/auth.js';
+import { createUserInputSchema, idParamsSchema, inviteUserInputSchema, updateUserInputSchema } from '../../../shared/schemas/people.js';
+import { currentUser, requireRole } from '../../lib/auth.js';
 import { validate } from '../../lib/validate.js';
+import type { AccountMailLab } from '../mail/templates/account-mail.js';
+import { inviteUser } from './invitations.service.js';
 import * as people from './people.service.js';
 
 /** Manager-only account administration: /api/users. */
-export function peopleRouter(): Router {
+export function peopleRouter(options: { lab: AccountMailLab }): Router {
   const router = Router();
   router.use(requireRole('manager'));
 
@@ -15,6 +17,11 @@ export function peopleRouter(): Router {
 
   router.post('/', validate({ body: createUserInputSchema }), async (_req, res) => {
     res.status(201).json({ user: await people.createUser(res.locals.body) });
+  });
+
+  // Invite by e-mail; inviting a pending invitee again sends a new link and retires the older ones.
+  router.post('/invitations', validate({ body: inviteUserInputSchema }), async (_req, res) => {
+    res.status(201).json(await inviteUser(res.locals.body, currentUser(res.locals), options.lab));
   });
 
   router.patch('/:id', validate({ params: idParamsSchema, body: updateUserInputSchema }), async (_req, res) => {

@@ -1,5 +1,5 @@
 import bcrypt from 'bcryptjs';
-import { QueryTypes, UniqueConstraintError } from 'sequelize';
+import { QueryTypes, UniqueConstraintError, type Transaction } from 'sequelize';
 import type { CreateUserInput, SessionUser, UpdateUserInput, User } from '../../../shared/schemas/people.js';
 import { conflict, notFound } from '../../lib/errors.js';
 import { UserModel } from './user.model.js';
@@ -7,7 +7,9 @@ import { UserModel } from './user.model.js';
 /** bcrypt cost factor for stored passwords. */
 export const BCRYPT_COST = 12;
 
-function toUser(row: UserModel): User {
+/** A user as the API shows it; `invitationExpiresAt` is the newest open invitation's expiry, if any. */
+export function toUser(row: UserModel, invitationExpiresAt: Date | null = null): User {
+  const invited = row.passwordHash === null;
   return {
     id: row.id,
     email: row.email,
@@ -16,7 +18,23 @@ function toUser(row: UserModel): User {
     active: row.active,
     createdAt: row.createdAt.toISOString(),
     lastSignInAt: row.lastSignInAt ? row.lastSignInAt.toISOString() : null,
+    invited,
+    invitationExpiresAt: invited && invitationExpiresAt ? invitationExpiresAt.toISOString() : null,
   };
+}
+
+/**
+ * The newest unused invitation's expiry of each invited person (no password yet), by user id. Reads
+ * user_tokens through user_tokens_user_id_idx, for the invitees only.
+ */
+async function invitationExpiries(ids: number[], transaction?: Transaction): Promise<Map<number, Date>> {
+  if (!ids.length) return new Map();
+  const rows = await UserModel.sequelize!.query<{ user_id: number; expires_at: Date }>(
+    `SELECT user_id, max(expires_at) AS expires_at FROM user_tokens
+      WHERE user_id IN (:ids) AND purpose = 'invitation' AND used_at IS NULL GROUP BY user_id`,
+    { replacements: { ids }, type: QueryTypes.SELECT, transaction },
+  );
+  return new Map(rows.map((r) => [r.user_id, new Date(r.expires_at)]));
 }
 
 function toSessionUser(row: UserModel): SessionUser {
@@ -55,8 +73,15 @@ export async function findActiveUser(id: number): Promise<SessionUser | null> {
 
 export async function listUsers(): Promise<User[]> {
   const rows = await UserModel.findAll({ order: [['name', 'ASC'], ['id', 'ASC']] });
-  return rows.map(toUser);
+  const expiries = await invitationExpiries(rows.filter((r) => r.passwordHash === null).map((r) => r.id));
+  return rows.map((row) => toUser(row, expiries.get(row.id) ?? null));
 }
+
+/** 409 on the email field: the address belongs to an account already. */
+export const emailTaken = () =>
+  conflict('email_taken', 'An account with that e-mail address already exists.', [
+    { path: 'email', message: 'An account with that e-mail address already exists' },
+  ]);
 
 export async function createUser(input: CreateUserInput): Promise<User> {
   try {
@@ -69,9 +94,7 @@ export async function createUser(input: CreateUserInput): Promise<User> {
     return toUser(row);
   } catch (err) {
     if (err instanceof UniqueConstraintError) {
-      throw conflict('email_taken', 'An account with that e-mail address already exists.', [
-        { path: 'email', message: 'An account with that e-mail address already exists' },
-      ]);
+      throw emailTaken();
     }
     throw err;
   }
@@ -87,11 +110,12 @@ export async function updateUser(id: number, changes: UpdateUserInput): Promise<
     const row = await UserModel.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE });
     if (!row) throw notFound('User');
     const losesManager =
-      row.role === 'manager' && row.active && ((changes.role && changes.role !== 'manager') || changes.active === false);
+      row.role === 'manager' && row.active && row.passwordHash !== null && ((changes.role && changes.role !== 'manager') || changes.active === false);
     if (losesManager) {
-      // Lock the managers' rows so two managers cannot demote each other at the same moment.
+      // Lock the managers' rows so two managers cannot demote each other at the same moment. An invited manager
+      // who has not chosen a password yet cannot run the lab, so does not count.
       const managers = await sequelize.query<{ id: number }>(
-        `SELECT id FROM users WHERE role = 'manager' AND active FOR UPDATE`,
+        `SELECT id FROM users WHERE role = 'manager' AND active AND password_hash IS NOT NULL FOR UPDATE`,
         { type: QueryTypes.SELECT, transaction },
       );
       if (managers.length <= 1) {
@@ -105,6 +129,7 @@ export async function updateUser(id: number, changes: UpdateUserInput): Promise<
         transaction,
       });
     }
-    return toUser(row);
+    const expiries = row.passwordHash === null ? await invitationExpiries([row.id], transaction) : new Map<number, Date>();
+    return toUser(row, expiries.get(row.id) ?? null);
   });
 }

@@ -1,7 +1,7 @@
-import { useQuery } from '@tanstack/react-query';
-import { useNavigate, useSearchParams } from 'react-router-dom';
+import { Link, useNavigate, useSearchParams } from 'react-router-dom';
+import { Notice } from '@/components/ui/feedback';
 import { SignInForm } from '@/features/auth/components/sign-in-form';
-import { labInfoOptions } from '@/features/lab/api/lab.queries';
+import { PublicPage } from './public-page';
 
 /** Only same-site paths are followed after sign-in. */
 function safeNext(next: string | null): string {
@@ -11,31 +11,21 @@ function safeNext(next: string | null): string {
 export function SignInRoute() {
   const [params] = useSearchParams();
   const navigate = useNavigate();
-  const lab = useQuery(labInfoOptions());
   return (
-    <div className="grid min-h-screen md:grid-cols-[1.1fr_1fr]">
-      <aside className="hidden flex-col justify-between bg-ink-900 p-10 text-ptfe-100 md:flex">
-        <span className="text-title font-extrabold">
-          skew<span className="text-copper-300">bench</span>
-        </span>
-        <div>
-          <svg viewBox="0 0 320 90" className="mb-8 w-full max-w-sm" aria-hidden>
-            <path d="M0 45 C20 5 40 5 60 45 S100 85 120 45 S160 5 180 45 S220 85 240 45 S280 5 300 45" fill="none" stroke="#cd7b43" strokeWidth="3" />
-            <path d="M20 45 C40 5 60 5 80 45 S120 85 140 45 S180 5 200 45 S240 85 260 45 S300 5 320 45" fill="none" stroke="#7cc3bc" strokeWidth="3" strokeDasharray="5 5" />
-          </svg>
-          <p className="max-w-md text-lead text-ink-200">
-            Book the shared bench, record how every cable was wired, and see which angle of arrival your delays emulate.
-          </p>
+    <PublicPage>
+      <h1 className="text-display text-ink-900">Sign in</h1>
+      <p className="mb-6 mt-1 text-body text-ink-500">Use the account your lab manager created for you.</p>
+      {params.get('notice') === 'password-changed' ? (
+        <div className="mb-5">
+          <Notice tone="pass">Your password was changed and you were signed out everywhere. Sign in with the new password.</Notice>
         </div>
-        <p className="text-caption text-ink-400">{lab.data?.name}</p>
-      </aside>
-      <main className="flex items-center justify-center px-6 py-12">
-        <div className="w-full max-w-sm">
-          <h1 className="text-display text-ink-900">Sign in</h1>
-          <p className="mb-6 mt-1 text-body text-ink-500">Use the account your lab manager created for you.</p>
-          <SignInForm onSignedIn={() => navigate(safeNext(params.get('next')), { replace: true })} />
-        </div>
-      </main>
-    </div>
+      ) : null}
+      <SignInForm onSignedIn={() => navigate(safeNext(params.get('next')), { replace: true })} />
+      <p className="mt-5 text-body">
+        <Link to="/forgot-password" className="font-semibold text-phase-700 underline underline-offset-4">
+          Forgot your password?
+        </Link>
+      </p>
+    </PublicPage>
   );
 }

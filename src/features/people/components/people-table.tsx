@@ -4,10 +4,45 @@ import { roleLabels, roles, type Role } from '@shared/domain/roles';
 import type { User } from '@shared/schemas/people';
 import { Button } from '@/components/ui/button';
 import { Badge, EmptyState, Loading, Notice, Panel } from '@/components/ui/feedback';
-import { useUpdatePerson } from '../api/people.mutations';
+import { useInvitePerson, useUpdatePerson } from '../api/people.mutations';
 import { peopleListOptions } from '../api/people.queries';
 
 const dateTime = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' });
+
+/** Status of an account that has no password yet: the invitation is open, or its link expired. */
+function InvitationStatus({ person }: { person: User }) {
+  const open = person.invitationExpiresAt !== null && Date.parse(person.invitationExpiresAt) > Date.now();
+  return open ? (
+    <div>
+      <Badge tone="caution">Invited</Badge>
+      <div className="mt-1 text-caption text-ink-500">link valid until {dateTime.format(new Date(person.invitationExpiresAt!))}</div>
+    </div>
+  ) : (
+    <div>
+      <Badge tone="fault">Invitation expired</Badge>
+      <div className="mt-1 text-caption text-ink-500">send it again for a new link</div>
+    </div>
+  );
+}
+
+/** Send a pending invitee a new link (the older ones stop working). */
+function SendAgain({ person }: { person: User }) {
+  const invite = useInvitePerson();
+  return (
+    <div className="flex flex-col items-end gap-1">
+      <Button
+        variant="secondary"
+        className="!px-2.5 !py-1"
+        disabled={invite.isPending}
+        onClick={() => invite.mutate({ email: person.email, name: person.name, role: person.role })}
+      >
+        {invite.isPending ? 'Sending…' : 'Send invitation again'}
+      </Button>
+      {invite.isSuccess ? <span className="text-caption text-pass-700">New link sent</span> : null}
+      {invite.error ? <span className="text-caption text-fault-700">{invite.error.message}</span> : null}
+    </div>
+  );
+}
 
 function PersonRow({ person, isSelf }: { person: User; isSelf: boolean }) {
   const update = useUpdatePerson();
@@ -44,42 +79,45 @@ function PersonRow({ person, isSelf }: { person: User; isSelf: boolean }) {
         </select>
       </td>
       <td className="py-2.5 pr-3">
-        {person.active ? <Badge tone="pass">Active</Badge> : <Badge tone="muted">Deactivated</Badge>}
+        {!person.active ? <Badge tone="muted">Deactivated</Badge> : person.invited ? <InvitationStatus person={person} /> : <Badge tone="pass">Active</Badge>}
       </td>
       <td className="py-2.5 pr-3 text-caption text-ink-500">
         {person.lastSignInAt ? dateTime.format(new Date(person.lastSignInAt)) : 'never'}
       </td>
       <td className="py-2.5 text-right">
-        {person.active ? (
-          confirming ? (
-            <div className="flex justify-end gap-1.5">
-              <Button
-                variant="danger"
-                className="!px-2.5 !py-1"
-                disabled={update.isPending}
-                onClick={() => update.mutate({ id: person.id, changes: { active: false } }, { onSettled: () => setConfirming(false) })}
-              >
-                Sign out and deactivate
+        <div className="flex flex-col items-end gap-1.5">
+          {person.active && person.invited ? <SendAgain person={person} /> : null}
+          {person.active ? (
+            confirming ? (
+              <div className="flex justify-end gap-1.5">
+                <Button
+                  variant="danger"
+                  className="!px-2.5 !py-1"
+                  disabled={update.isPending}
+                  onClick={() => update.mutate({ id: person.id, changes: { active: false } }, { onSettled: () => setConfirming(false) })}
+                >
+                  Sign out and deactivate
+                </Button>
+                <Button variant="quiet" className="!px-2.5 !py-1" onClick={() => setConfirming(false)}>
+                  Keep
+                </Button>
+              </div>
+            ) : (
+              <Button variant="secondary" className="!px-2.5 !py-1" onClick={() => setConfirming(true)}>
+                Deactivate…
               </Button>
-              <Button variant="quiet" className="!px-2.5 !py-1" onClick={() => setConfirming(false)}>
-                Keep
-              </Button>
-            </div>
+            )
           ) : (
-            <Button variant="secondary" className="!px-2.5 !py-1" onClick={() => setConfirming(true)}>
-              Deactivate…
+            <Button
+              variant="secondary"
+              className="!px-2.5 !py-1"
+              disabled={update.isPending}
+              onClick={() => update.mutate({ id: person.id, changes: { active: true } })}
+            >
+              Reactivate
             </Button>
-          )
-        ) : (
-          <Button
-            variant="secondary"
-            className="!px-2.5 !py-1"
-            disabled={update.isPending}
-            onClick={() => update.mutate({ id: person.id, changes: { active: true } })}
-          >
-            Reactivate
-          </Button>
-        )}
+          )}
+        </div>
       </td>
     </tr>
   );
