@@ -107,14 +107,15 @@ export function createApp({ config, sequelize, sessionPool }: AppDeps): Express 
     requireCsrfToken,
   );
 
-  app.use('/api/auth', authRouter({ signInAttempts: config.signInAttempts }));
-  app.use('/api/users', peopleRouter());
-  app.use('/api/lab', labRouter({ ...config.lab, publicUrl: config.publicUrl }));
+  const accountMailLab = { name: config.lab.name, timeZone: config.lab.timeZone, publicUrl: config.publicUrl };
+  app.use('/api/auth', authRouter({ signInAttempts: config.signInAttempts, lab: accountMailLab }));
+  app.use('/api/users', peopleRouter({ lab: accountMailLab }));
+  app.use('/api/lab', labRouter({ ...config.lab, publicUrl: config.publicUrl, mail: { captureInUse: config.mail.captureInUse, from: config.mail.from } }));
   app.use('/api/instruments', instrumentsRouter({ timeZone: config.lab.timeZone }));
   app.use('/api/parts', partsRouter());
   app.use('/api/analysis', analysisRouter());
   app.use('/api/setups', setupsRouter());
-  const booking = bookingsRouter({ timeZone: config.lab.timeZone });
+  const booking = bookingsRouter({ timeZone: config.lab.timeZone, lab: { name: config.lab.name, publicUrl: config.publicUrl } });
   app.use('/api/bookings', booking.bookings);
   app.use('/api/waitlist', booking.waitlist);
   app.use('/api/photos', photosRouter(config.uploads));

@@ -5,12 +5,14 @@ import { InstrumentModel, QualificationModel } from '../features/instruments/ins
 import { PartModel } from '../features/parts/part.model.js';
 import { SetupModel } from '../features/setups/setup.model.js';
 import { UserModel } from '../features/people/user.model.js';
+import { UserTokenModel } from '../features/people/user-token.model.js';
 import { PhotoModel } from '../features/photos/photo.model.js';
 import { OutboxModel } from '../features/mail/mail.model.js';
 
 /** Register every feature's model on the instance, then wire associations once all exist. */
 export function initModels(sequelize: Sequelize): void {
   UserModel.initModel(sequelize);
+  UserTokenModel.initModel(sequelize);
   InstrumentModel.initModel(sequelize);
   QualificationModel.initModel(sequelize);
   PartModel.initModel(sequelize);

@@ -6,6 +6,8 @@ export const labInfoSchema = z.object({
   timeZone: z.string(),
   /** The address people use to reach Skewbench (QR labels point here). */
   publicUrl: z.string(),
+  /** How mail leaves: `captureInUse` when the local capture receives it all (no SMTP_URL), and the From address. */
+  mail: z.object({ captureInUse: z.boolean(), from: z.string() }),
 });
 export type LabInfo = z.infer<typeof labInfoSchema>;
 

@@ -41,6 +41,22 @@ const router = createBrowserRouter([
     lazy: async () => ({ Component: (await import('./routes/sign-in')).SignInRoute }),
     errorElement: <RouteError />,
   },
+  // Reached from e-mailed links and from the sign-in page, signed out.
+  {
+    path: '/invitation/:token',
+    lazy: async () => ({ Component: (await import('./routes/invitation')).InvitationRoute }),
+    errorElement: <RouteError />,
+  },
+  {
+    path: '/forgot-password',
+    lazy: async () => ({ Component: (await import('./routes/forgot-password')).ForgotPasswordRoute }),
+    errorElement: <RouteError />,
+  },
+  {
+    path: '/reset-password/:token',
+    lazy: async () => ({ Component: (await import('./routes/reset-password')).ResetPasswordRoute }),
+    errorElement: <RouteError />,
+  },
   {
     path: '/',
     element: <AppShell />,
@@ -52,6 +68,7 @@ const router = createBrowserRouter([
         errorElement: <RouteError />,
         children: [
           { index: true, lazy: async () => ({ Component: (await import('./routes/overview')).OverviewRoute }) },
+          { path: 'account', lazy: async () => ({ Component: (await import('./routes/account')).AccountRoute }) },
           { path: 'calendar', lazy: async () => ({ Component: (await import('./routes/calendar')).CalendarRoute }) },
           {
             path: 'bookings',
@@ -60,6 +77,13 @@ const router = createBrowserRouter([
             lazy: async () => ({ Component: (await import('./routes/my-bookings')).MyBookingsRoute }),
           },
           { path: 'bookings/:id', lazy: async () => ({ Component: (await import('./routes/booking-detail')).BookingDetailRoute }) },
+          {
+            // The link of a freed-slot e-mail: opening it books the slot.
+            path: 'waitlist/:id/claim',
+            loader: requireRoleLoader('researcher', 'Waitlist offers are for researchers and lab managers.'),
+            shouldRevalidate: onlyOnNewPage,
+            lazy: async () => ({ Component: (await import('./routes/waitlist-claim')).WaitlistClaimRoute }),
+          },
           { path: 'setups', lazy: async () => ({ Component: (await import('./routes/setups')).SetupsRoute }) },
           {
             path: 'setups/new',
@@ -114,6 +138,12 @@ const router = createBrowserRouter([
             loader: requireRoleLoader('manager', 'The People page is for lab managers.'),
             shouldRevalidate: onlyOnNewPage,
             lazy: async () => ({ Component: (await import('./routes/people')).PeopleRoute }),
+          },
+          {
+            path: 'mail',
+            loader: requireRoleLoader('manager', 'The Mail page is for lab managers: it shows every message Skewbench sends.'),
+            shouldRevalidate: onlyOnNewPage,
+            lazy: async () => ({ Component: (await import('./routes/mail')).MailRoute }),
           },
           { path: '*', lazy: async () => ({ Component: (await import('./routes/not-found')).NotFoundRoute }) },
         ],

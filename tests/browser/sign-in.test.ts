@@ -35,7 +35,7 @@ const navLinks = async () => page.getByRole('navigation', { name: 'Main' }).getB
 
 describe('sign-in and navigation by role', () => {
   it.each([
-    ['manager@lab.test', 'Lab manager', ['Overview', 'Calendar', 'My bookings', 'Setups', 'Instruments', 'Cables & parts', 'Labels', 'People']],
+    ['manager@lab.test', 'Lab manager', ['Overview', 'Calendar', 'My bookings', 'Setups', 'Instruments', 'Cables & parts', 'Labels', 'People', 'Mail']],
     ['researcher@lab.test', 'Researcher', ['Overview', 'Calendar', 'My bookings', 'Setups', 'Instruments', 'Cables & parts']],
     ['visitor@lab.test', 'Visitor', ['Overview', 'Calendar', 'Setups', 'Instruments', 'Cables & parts']],
   ])('%s signs in and sees the %s navigation', async (email, roleLabel, links) => {

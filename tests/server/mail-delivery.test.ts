@@ -1,6 +1,6 @@
 // Delivery of the outbox: queued in the transaction of a change, sent by the worker over real SMTP (nodemailer
 // to the local smtp-server capture, parsed by mailparser), retried while the server is away, never doubled.
-import nodemailer from 'nodemailer';
+import nodemailer, { type Transporter } from 'nodemailer';
 import { QueryTypes, type Sequelize } from 'sequelize';
 import { SMTPServer } from 'smtp-server';
 import request from 'supertest';
@@ -17,7 +17,7 @@ import { signIn, startTestApp, type TestApp } from '../support/test-app.js';
 // capture server runs as `npm start` runs it. The runtime's own worker is tested at the end.
 let t: TestApp;
 let capture: MailCapture;
-let transport: nodemailer.Transporter;
+let transport: Transporter;
 beforeAll(async () => {
   t = await startTestApp({ PUBLIC_URL: 'https://bench.lab.test' });
   capture = await startMailCapture(t.db.sequelize, { port: 0 });
@@ -47,7 +47,7 @@ async function queue(count: number, to = 'ada.quill@lab.test'): Promise<number[]
 }
 
 /** A worker's options for a transport; `clock` lets a test step past the backoff instead of waiting for it. */
-function worker(transport: nodemailer.Transporter, clock: { now: Date }, sequelize: Sequelize = t.db.sequelize) {
+function worker(transport: Transporter, clock: { now: Date }, sequelize: Sequelize = t.db.sequelize) {
   return { sequelize, transport, from: 'Skewbench <skewbench@lab.test>', messageIdHost: 'bench.lab.test', now: () => clock.now };
 }
 

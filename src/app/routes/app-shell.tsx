@@ -17,6 +17,7 @@ const navigation: { to: string; label: string; minimum: Role }[] = [
   { to: '/parts', label: 'Cables & parts', minimum: 'visitor' },
   { to: '/labels', label: 'Labels', minimum: 'manager' },
   { to: '/people', label: 'People', minimum: 'manager' },
+  { to: '/mail', label: 'Mail', minimum: 'manager' },
 ];
 
 export function AppShell() {
@@ -47,7 +48,7 @@ export function AppShell() {
             </span>
             {lab.data ? <span className="hidden text-caption text-ink-300 2xl:inline">{lab.data.name}</span> : null}
           </div>
-          <nav aria-label="Main" className="flex flex-1 gap-1">
+          <nav aria-label="Main" className="flex flex-1 flex-wrap gap-1">
             {navigation
               .filter((item) => hasRole(user.role, item.minimum))
               .map((item) => (
@@ -64,12 +65,16 @@ export function AppShell() {
               ))}
           </nav>
           <div className="flex items-center gap-3">
-            <div className="text-right leading-tight">
+            <NavLink
+              to="/account"
+              title="Your account and e-mail notifications"
+              className={({ isActive }) => `rounded-chip px-2 py-1 text-right leading-tight hover:bg-ink-800 ${isActive ? 'bg-ink-700' : ''}`}
+            >
               <div className="whitespace-nowrap text-body font-semibold">{user.name}</div>
               <div className="text-caption text-copper-200" data-testid="role-label">
                 {roleLabels[user.role]}
               </div>
-            </div>
+            </NavLink>
             <Button
               variant="secondary"
               className="!py-1.5"
