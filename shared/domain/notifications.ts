@@ -69,6 +69,3 @@ export function wantsMail(settings: Readonly<Record<string, boolean>>, kind: Mai
 export function retryDelayMs(attempts: number): number {
   return Math.min(5_000 * 2 ** Math.max(0, attempts - 1), 3_600_000);
 }
-
-/** After this many failed tries (about a day and a half of hourly retries) a message is marked failed. */
-export const MAX_SEND_ATTEMPTS = 40;

@@ -110,7 +110,10 @@ describe('inventory (lab manager)', () => {
     await signInThroughForm(page, live.url, 'manager@lab.test');
     await page.getByRole('link', { name: 'Labels' }).click();
     await page.getByText('PS-1').first().click();
-    await page.getByRole('checkbox', { name: /C-003/ }).check();
+    // The choice lives in the URL: the box shows it once the navigation has run, which takes a moment on a busy machine.
+    const c003 = page.getByRole('checkbox', { name: /C-003/ });
+    await c003.click();
+    await expect.poll(() => c003.isChecked()).toBe(true);
     await expect.poll(() => page.getByRole('img', { name: /QR code for/ }).count()).toBe(2);
     expect(await page.getByRole('button', { name: 'Print 2 labels' }).isEnabled()).toBe(true);
     await screenshot(page, 'labels');

@@ -6,7 +6,7 @@ import { SMTPServer } from 'smtp-server';
 import request from 'supertest';
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { freePort } from '../../scripts/lib/postgres.mjs';
-import { retryDelayMs } from '../../shared/domain/notifications.js';
+import { retryDelayMs, type MailKind } from '../../shared/domain/notifications.js';
 import { createSequelize } from '../../server/db/sequelize.js';
 import { enqueueMail } from '../../server/features/mail/outbox.service.js';
 import { drainOutbox } from '../../server/features/mail/outbox.worker.js';
@@ -38,10 +38,10 @@ const query = <T extends object>(sql: string, replacements: Record<string, unkno
 
 const mail = (n: number) => ({ subject: `Test message ${n}`, text: `Plain text ${n}`, html: `<p>HTML <b>${n}</b></p>` });
 
-async function queue(count: number, to = 'ada.quill@lab.test'): Promise<number[]> {
+async function queue(count: number, to = 'ada.quill@lab.test', kind: MailKind = 'booking-confirmed'): Promise<number[]> {
   const ids: number[] = [];
   await t.db.sequelize.transaction(async (transaction) => {
-    for (let i = 0; i < count; i++) ids.push(await enqueueMail(transaction, 'invitation', { address: to }, mail(i)));
+    for (let i = 0; i < count; i++) ids.push(await enqueueMail(transaction, kind, { address: to }, mail(i)));
   });
   return ids;
 }
@@ -148,7 +148,13 @@ describe('outbox delivery to the local SMTP capture', () => {
     const ids = await queue(40);
     // A second, independent connection pool, as a second server instance has.
     const other = createSequelize(t.config.db);
-    const [a, b] = [smtpTo(capture.port), smtpTo(capture.port)];
+    // Each send takes a little longer than on an idle machine, so both workers are still draining when the other
+    // starts: the test then shows that they skip each other's locked rows, rather than that one was quicker.
+    const slow = (transport: Transporter) => {
+      const send = transport.sendMail.bind(transport);
+      return Object.assign(transport, { sendMail: async (m: Parameters<typeof send>[0]) => (await new Promise((r) => setTimeout(r, 15)), send(m)) }) as Transporter;
+    };
+    const [a, b] = [slow(smtpTo(capture.port)), slow(smtpTo(capture.port))];
     try {
       const clock = { now: new Date() };
       const [ra, rb] = await Promise.all([drainOutbox(worker(a, clock)), drainOutbox(worker(b, clock, other))]);
@@ -168,7 +174,7 @@ describe('outbox delivery to the local SMTP capture', () => {
     expect(await query("SELECT id FROM outbox WHERE status <> 'sent'")).toEqual([]);
   });
 
-  it('a permanent refusal (5xx) marks the message failed without retrying; a temporary one (4xx) retries', async () => {
+  it('a refusal of the message (550) marks it failed; 4xx and authentication errors (535) are retried; a manager requeues a failed one', async () => {
     let answer = 550;
     const port = await freePort();
     const refusing = new SMTPServer({
@@ -176,7 +182,8 @@ describe('outbox delivery to the local SMTP capture', () => {
       authOptional: true,
       logger: false,
       onRcptTo(_address, _session, callback) {
-        callback(Object.assign(new Error(answer === 550 ? 'No such mailbox here' : 'Try again later'), { responseCode: answer }));
+        const text = { 550: 'No such mailbox here', 451: 'Try again later', 535: 'Authentication credentials invalid' }[answer];
+        callback(Object.assign(new Error(text), { responseCode: answer }));
       },
     });
     await new Promise<void>((resolve) => refusing.listen(port, '127.0.0.1', () => resolve()));
@@ -188,14 +195,37 @@ describe('outbox delivery to the local SMTP capture', () => {
       expect(await drainOutbox(worker(refused, clock))).toEqual({ sent: 0, retried: 0, failed: 1 });
       expect((await query<{ status: string; last_error: string }>('SELECT status, last_error FROM outbox WHERE id = :id', { id: permanent }))[0]).toMatchObject({ status: 'failed', last_error: expect.stringContaining('550') });
 
-      answer = 451;
-      const [temporary] = await queue(1, 'busy@lab.test');
-      expect(await drainOutbox(worker(refused, clock))).toEqual({ sent: 0, retried: 1, failed: 0 });
-      expect((await query<{ status: string; attempts: number }>('SELECT status, attempts FROM outbox WHERE id = :id', { id: temporary }))[0]).toMatchObject({ status: 'pending', attempts: 1 });
+      for (const code of [451, 535]) {
+        answer = code;
+        const [again] = await queue(1, `busy-${code}@lab.test`);
+        expect(await drainOutbox(worker(refused, clock))).toEqual({ sent: 0, retried: 1, failed: 0 });
+        expect((await query<{ status: string; attempts: number }>('SELECT status, attempts FROM outbox WHERE id = :id', { id: again }))[0]).toMatchObject({ status: 'pending', attempts: 1 });
+        await t.db.sequelize.query('DELETE FROM outbox WHERE id = :id', { replacements: { id: again } });
+      }
+
+      // The address is fixed at the relay: the manager puts the failed message back, and it goes out.
+      const { agent, csrf } = await signIn(t.app, 'manager@lab.test');
+      expect((await agent.post('/api/outbox/999999/retry').set('x-csrf-token', csrf).expect(404)).body.error.code).toBe('not_found');
+      expect((await agent.post(`/api/outbox/${permanent}/retry`).set('x-csrf-token', csrf).expect(200)).body).toEqual({ requeued: 1 });
+      expect(await sendNow()).toEqual({ sent: 1, retried: 0, failed: 0 });
+      expect((await query<{ status: string }>('SELECT status FROM outbox WHERE id = :id', { id: permanent }))[0]!.status).toBe('sent');
     } finally {
       refused.close();
       await new Promise<void>((resolve) => refusing.close(() => resolve()));
     }
+  });
+
+  it('keeps no live one-time link in the outbox once an invitation or reset is sent', async () => {
+    const [invitation] = await queue(1, 'new.person@lab.test', 'invitation');
+    const [confirmation] = await queue(1, 'new.person@lab.test', 'booking-confirmed');
+    await sendNow();
+    const rows = await query<{ id: string; text_body: string; html_body: string }>('SELECT id, text_body, html_body FROM outbox ORDER BY id');
+    const byId = Object.fromEntries(rows.map((r) => [Number(r.id), r]));
+    expect(byId[invitation!]!.text_body).toMatch(/^\(Removed after sending/);
+    expect(byId[invitation!]!.html_body).toMatch(/^\(Removed after sending/);
+    expect(byId[confirmation!]!.text_body).toBe('Plain text 0');
+    // The recipient's copy is whole.
+    expect((await query<{ text_body: string }>('SELECT text_body FROM captured_mail ORDER BY id'))[0]!.text_body.trim()).toBe('Plain text 0');
   });
 });
 
@@ -227,10 +257,11 @@ describe('GET /api/mailbox and /api/outbox', () => {
     const { agent } = await signIn(t.app, 'manager@lab.test');
     let res = await agent.get('/api/outbox').expect(200);
     expect(res.body.counts).toEqual({ pending: 2, sent: 0, failed: 0 });
-    expect(res.body.entries[0]).toMatchObject({ kind: 'invitation', to: 'ada.quill@lab.test', status: 'pending', attempts: 0 });
+    expect(res.body.entries[0]).toMatchObject({ kind: 'booking-confirmed', to: 'ada.quill@lab.test', status: 'pending', attempts: 0 });
     await sendNow();
     res = await agent.get('/api/outbox?status=sent').expect(200);
     expect(res.body.counts).toEqual({ pending: 0, sent: 2, failed: 0 });
+    expect(res.body.sentCountDays).toBe(7);
     expect(res.body.entries).toHaveLength(2);
     expect((await agent.get('/api/outbox?status=lost').expect(400)).body.error.code).toBe('validation_failed');
   });

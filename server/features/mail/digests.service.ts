@@ -50,7 +50,7 @@ async function calibrationDigest(now: Date, lab: DigestLab): Promise<number> {
     );
     if (!rows.length) return 0;
     const due = rows.map((r) => ({ ...r, daysLeft: daysUntil(r.dueOn, today) }));
-    const managers = await db().query<{ id: number }>(`SELECT id FROM users WHERE role = 'manager' AND active ORDER BY id`, { type: QueryTypes.SELECT, transaction });
+    const managers = await db().query<{ id: number }>(`SELECT id FROM users WHERE role = 'manager' AND active AND password_hash IS NOT NULL ORDER BY id`, { type: QueryTypes.SELECT, transaction });
     let queued = 0;
     for (const m of managers) {
       const id = await enqueueForUser(transaction, 'calibration-digest', m.id, (r) => calibrationDigestMail(lab, r.name, today, CALIBRATION_DIGEST_DAYS, due));

@@ -30,7 +30,9 @@ export async function startMail(sequelize: Sequelize, mail: MailConfig, publicUr
   let transport: Transporter;
   let describe: string;
   if (mail.smtpUrl) {
-    transport = nodemailer.createTransport(mail.smtpUrl);
+    // Time-outs, so a relay that stops answering cannot hold an outbox row's lock for nodemailer's default minutes;
+    // the URL's own settings (port, TLS, credentials, ?options) win.
+    transport = nodemailer.createTransport({ url: mail.smtpUrl, connectionTimeout: 15_000, greetingTimeout: 15_000, socketTimeout: 60_000 });
     describe = `sent through ${redactSmtpUrl(mail.smtpUrl)}`;
   } else {
     capture = await startMailCapture(sequelize, { port: mail.capturePort });

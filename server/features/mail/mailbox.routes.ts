@@ -49,5 +49,12 @@ export function outboxRouter(): Router {
   router.get('/', validate({ query: outboxQuerySchema }), async (_req, res) => {
     res.json(await mailbox.listOutbox(res.locals.query));
   });
+  // A message refused for good (e.g. an unknown mailbox at the relay) goes back in the queue once fixed.
+  router.post('/retry', async (_req, res) => {
+    res.json({ requeued: await mailbox.retryFailed(null) });
+  });
+  router.post('/:id/retry', validate({ params: idParamsSchema }), async (_req, res) => {
+    res.json({ requeued: await mailbox.retryFailed(res.locals.params.id) });
+  });
   return router;
 }

@@ -2,6 +2,7 @@ import { QueryTypes } from 'sequelize';
 import type { CapturedMail, CapturedMailSummary, MailboxQuery, OutboxEntry, OutboxQuery } from '../../../shared/schemas/mail.js';
 import { notFound } from '../../lib/errors.js';
 import { OutboxModel } from './mail.model.js';
+import { outboxQueued } from './outbox.signal.js';
 
 const db = () => OutboxModel.sequelize!;
 const iso = (column: string) => `to_char(${column} AT TIME ZONE 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS.MS"Z"')`;
@@ -17,7 +18,7 @@ const summaryColumns = `m.id::int AS id, array_to_string(m.envelope_to, ', ') AS
 export async function listCaptured(query: MailboxQuery): Promise<CapturedMailSummary[]> {
   return db().query<CapturedMailSummary>(
     `SELECT ${summaryColumns} FROM captured_mail m
-      WHERE (:to::text IS NULL OR :to = ANY (m.envelope_to))
+      WHERE (:to::text IS NULL OR m.envelope_to @> ARRAY[:to]::text[])
         AND (:since::timestamptz IS NULL OR m.received_at >= :since)
       ORDER BY m.received_at DESC, m.id DESC LIMIT :limit`,
     { replacements: { to: query.to ?? null, since: query.since ?? null, limit: query.limit }, type: QueryTypes.SELECT },
@@ -48,8 +49,14 @@ export async function clearCaptured(): Promise<number> {
   return (meta as { rowCount?: number }).rowCount ?? 0;
 }
 
-/** The outbox as a manager sees it: newest first, optionally one status. */
-export async function listOutbox(query: OutboxQuery): Promise<{ entries: OutboxEntry[]; counts: Record<'pending' | 'sent' | 'failed', number> }> {
+/** Days of sent mail the outbox page counts. */
+export const SENT_COUNT_DAYS = 7;
+
+/**
+ * The outbox as a manager sees it: newest first, optionally one status; counts of what waits, what failed, and
+ * what was sent in the last SENT_COUNT_DAYS days (each read through its own partial index).
+ */
+export async function listOutbox(query: OutboxQuery): Promise<{ entries: OutboxEntry[]; counts: Record<'pending' | 'sent' | 'failed', number>; sentCountDays: number }> {
   const entries = await db().query<OutboxEntry>(
     `SELECT o.id::int AS id, o.kind, o.to_address AS "to", o.subject, o.status, o.attempts, o.last_error AS "lastError",
             ${iso('o.created_at')} AS "createdAt", ${iso('o.sent_at')} AS "sentAt", ${iso('o.next_attempt_at')} AS "nextAttemptAt"
@@ -57,8 +64,23 @@ export async function listOutbox(query: OutboxQuery): Promise<{ entries: OutboxE
       ORDER BY o.created_at DESC, o.id DESC LIMIT :limit`,
     { replacements: { status: query.status ?? null, limit: query.limit }, type: QueryTypes.SELECT },
   );
-  const rows = await db().query<{ status: 'pending' | 'sent' | 'failed'; n: number }>(`SELECT status, count(*)::int AS n FROM outbox GROUP BY status`, { type: QueryTypes.SELECT });
-  const counts = { pending: 0, sent: 0, failed: 0 };
-  for (const r of rows) counts[r.status] = r.n;
-  return { entries, counts };
+  const [counts] = await db().query<{ pending: number; failed: number; sent: number }>(
+    `SELECT (SELECT count(*)::int FROM outbox WHERE status = 'pending') AS pending,
+            (SELECT count(*)::int FROM outbox WHERE status = 'failed') AS failed,
+            (SELECT count(*)::int FROM outbox WHERE status = 'sent' AND sent_at > now() - make_interval(days => :days)) AS sent`,
+    { replacements: { days: SENT_COUNT_DAYS }, type: QueryTypes.SELECT },
+  );
+  return { entries, counts: counts!, sentCountDays: SENT_COUNT_DAYS };
+}
+
+/** Put failed rows back in the queue, due now (one, or all when `id` is null); returns how many. */
+export async function retryFailed(id: number | null): Promise<number> {
+  const [rows] = await db().query(
+    `UPDATE outbox SET status = 'pending', next_attempt_at = now() WHERE status = 'failed' AND (:id::bigint IS NULL OR id = :id) RETURNING id`,
+    { replacements: { id } },
+  );
+  const n = (rows as unknown[]).length;
+  if (id !== null && n === 0) throw notFound('Failed message');
+  if (n) outboxQueued.emit('queued');
+  return n;
 }

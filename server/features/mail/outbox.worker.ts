@@ -3,13 +3,14 @@
 // drain the same outbox side by side and no row is sent by two of them.
 import { QueryTypes, type Sequelize } from 'sequelize';
 import type { Transporter } from 'nodemailer';
-import { MAX_SEND_ATTEMPTS, retryDelayMs } from '../../../shared/domain/notifications.js';
+import { retryDelayMs, type MailKind } from '../../../shared/domain/notifications.js';
 import { logger } from '../../lib/logger.js';
 import type { OutboxAttachment } from './mail.model.js';
 import { outboxQueued } from './outbox.signal.js';
 
 interface DueRow {
   id: string;
+  kind: MailKind;
   to_address: string;
   subject: string;
   text_body: string;
@@ -28,13 +29,25 @@ export interface OutboxWorkerOptions {
   /** How often to look for due rows when nothing wakes the worker, ms. */
   pollMs?: number;
   now?: () => Date;
+  /** Asked between rows: true ends the pass early (the server is stopping). */
+  stopping?: () => boolean;
 }
 
-/** SMTP answers 5xx for a permanent refusal; everything else (no connection, 4xx, time-out) is worth a retry. */
-function isPermanent(err: unknown): boolean {
+/**
+ * A refusal of this message itself (RFC 5321 §4.2.2, §4.2.3): 550 mailbox unavailable, 551 user not local,
+ * 552 too big, 553 mailbox name not allowed, 554 transaction failed. Retrying would give the same answer, so the
+ * row is marked failed for a manager to look at. Everything else is retried with backoff, for as long as it
+ * takes: no connection, a time-out, 4xx (try later), and the 5xx answers that mean the relay or our settings are
+ * wrong (500–504 syntax, 530/535 authentication), which a fixed SMTP_URL cures without losing the queue.
+ */
+function isRefusalOfMessage(err: unknown): boolean {
   const code = (err as { responseCode?: number }).responseCode;
-  return typeof code === 'number' && code >= 500 && code < 600;
+  return typeof code === 'number' && code >= 550 && code <= 554;
 }
+
+/** Kinds whose text holds a one-time link: once sent, the stored copy is cut, so the database holds no live link. */
+const SECRET_KINDS = new Set<MailKind>(['invitation', 'password-reset']);
+const REMOVED = '(Removed after sending: this message held a one-time link.)';
 
 function describe(err: unknown): string {
   const e = err as { code?: string; responseCode?: number; message?: string };
@@ -58,7 +71,7 @@ export async function drainOutbox(options: OutboxWorkerOptions): Promise<DrainRe
   for (;;) {
     const outcome = await sequelize.transaction(async (transaction) => {
       const [row] = await sequelize.query<DueRow>(
-        `SELECT id, to_address, subject, text_body, html_body, attachments, attempts FROM outbox
+        `SELECT id, kind, to_address, subject, text_body, html_body, attachments, attempts FROM outbox
           WHERE status = 'pending' AND next_attempt_at <= :now
           ORDER BY next_attempt_at, id LIMIT 1 FOR UPDATE SKIP LOCKED`,
         { replacements: { now: now() }, type: QueryTypes.SELECT, transaction },
@@ -77,7 +90,7 @@ export async function drainOutbox(options: OutboxWorkerOptions): Promise<DrainRe
         });
       } catch (err) {
         const attempts = row.attempts + 1;
-        const giveUp = isPermanent(err) || attempts >= MAX_SEND_ATTEMPTS;
+        const giveUp = isRefusalOfMessage(err);
         await sequelize.query(
           `UPDATE outbox SET attempts = :attempts, last_error = :error, status = :status, next_attempt_at = :next WHERE id = :id`,
           {
@@ -88,13 +101,16 @@ export async function drainOutbox(options: OutboxWorkerOptions): Promise<DrainRe
         if (giveUp) logger.warn(`mail ${row.id} to ${row.to_address} failed for good: ${describe(err)}`);
         return giveUp ? ('failed' as const) : ('retry' as const);
       }
-      await sequelize.query(`UPDATE outbox SET status = 'sent', sent_at = :now, attempts = attempts + 1, message_id = :messageId, last_error = NULL WHERE id = :id`, {
-        replacements: { id: row.id, now: now(), messageId },
-        transaction,
-      });
+      const secret = SECRET_KINDS.has(row.kind);
+      await sequelize.query(
+        `UPDATE outbox SET status = 'sent', sent_at = :now, attempts = attempts + 1, message_id = :messageId, last_error = NULL
+                ${secret ? `, text_body = :removed, html_body = :removed` : ''}
+          WHERE id = :id`,
+        { replacements: { id: row.id, now: now(), messageId, removed: REMOVED }, transaction },
+      );
       return 'sent' as const;
     });
-    if (outcome === 'empty') return result;
+    if (outcome === 'empty' || options.stopping?.()) return result;
     if (outcome === 'sent') result.sent += 1;
     else if (outcome === 'failed') result.failed += 1;
     else {
@@ -125,7 +141,7 @@ export function startOutboxWorker(options: OutboxWorkerOptions): OutboxWorker {
       do {
         again = false;
         try {
-          const r = await drainOutbox(options);
+          const r = await drainOutbox({ ...options, stopping: () => stopped });
           if (r.retried) logger.warn('mail server not reachable or busy; queued mail will be retried');
         } catch (err) {
           logger.warn(`outbox pass failed: ${(err as Error).message}`);

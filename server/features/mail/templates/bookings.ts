@@ -270,31 +270,38 @@ export function handoverMail(lab: BookingMailLab, recipientName: string, h: Hand
 export interface WaitlistOffer {
   entryId: number;
   instrument: MailInstrument;
-  /** The slot the person waits for (from now on, if it has already begun). */
+  /** The offered time: the part of the waited-for slot that became free, from the offer on; the claim books it. */
   startsAt: Date;
   endsAt: Date;
-  /** The time that became free. */
-  freedFrom: Date;
-  freedTo: Date;
+  /** The whole slot the person waits for. */
+  waitedFrom: Date;
+  waitedTo: Date;
   note: string;
 }
 
 export function waitlistOfferMail(lab: BookingMailLab, recipientName: string, o: WaitlistOffer): RenderedMail {
+  const offered = formatLabRange(o.startsAt, o.endsAt, lab.timeZone);
+  const whole = o.startsAt.getTime() <= o.waitedFrom.getTime() && o.endsAt.getTime() >= o.waitedTo.getTime();
   const facts: [string, string][] = [
     ['Instrument', instrumentNames([o.instrument])],
-    ['Your slot', formatLabRange(o.startsAt, o.endsAt, lab.timeZone)],
-    ['Became free', formatLabRange(o.freedFrom, o.freedTo, lab.timeZone)],
+    ['Offered to you', offered],
   ];
+  if (!whole) facts.push(['You wait for', formatLabRange(o.waitedFrom, o.waitedTo, lab.timeZone)]);
   if (o.instrument.location) facts.push(['Where', o.instrument.location]);
   if (o.note) facts.push(['Your note', o.note]);
   return composeMail(lab, {
-    subject: `Free now: ${o.instrument.tag}, ${formatLabRange(o.startsAt, o.endsAt, lab.timeZone)}`,
+    subject: `Free now: ${o.instrument.tag}, ${offered}`,
     recipientName,
-    lead: [`A slot of ${o.instrument.tag} that you are waiting for has become free, and you are first in the queue.`],
+    lead: [
+      whole
+        ? `The slot of ${o.instrument.tag} that you are waiting for has become free, and you are first in the queue.`
+        : `Part of the time you are waiting for on ${o.instrument.tag} has become free, and you are first in the queue: ${offered}.`,
+    ],
     facts,
     action: { label: 'Book this slot', url: `/waitlist/${o.entryId}/claim` },
     after: [
-      'The button books the slot for you if it is still free; the usual booking rules apply. Others can book free time too, so do not wait long.',
+      `The button books ${whole ? 'the slot' : 'this freed part'} for you if it is still free; the usual booking rules apply. Others can book free time too, so do not wait long.`,
+      ...(whole ? [] : ['Booking it closes this place on the waitlist: if you still need the rest of your time, join the waitlist again for it.']),
     ],
     footer: [`You receive this because you joined the waitlist for ${o.instrument.tag}. Freed-slot messages can be switched off on your account page ("Freed slots"): ${absoluteUrl(lab, '/account')}`],
   });

@@ -1,13 +1,15 @@
 import { useQuery } from '@tanstack/react-query';
 import type { OutboxEntry } from '@shared/schemas/mail';
+import { Button } from '@/components/ui/button';
 import { Badge, Loading, Notice, Panel } from '@/components/ui/feedback';
 import { outboxOptions } from '../api/get-outbox';
+import { useRetryOutboxEntry } from '../api/retry-outbox';
 import { formatLabInstant, kindLabel } from '../utils/mail-format';
 
 /** How many of the newest pending and failed messages the panel lists. */
 const SHOWN = 10;
 
-function Count({ label, value, tone }: { label: string; value: number; tone: 'caution' | 'pass' | 'fault' | 'muted' }) {
+function Count({ label, value, tone, hint }: { label: string; value: number; tone: 'caution' | 'pass' | 'fault' | 'muted'; hint?: string }) {
   const look = { caution: 'text-caution-700', pass: 'text-pass-700', fault: 'text-fault-700', muted: 'text-ink-400' }[value ? tone : 'muted'];
   return (
     <div className="rounded-chip bg-ptfe-50 px-3.5 py-2 ring-1 ring-ink-100">
@@ -15,7 +17,21 @@ function Count({ label, value, tone }: { label: string; value: number; tone: 'ca
       <dd className={`text-title tabular-nums ${look}`} data-testid={`outbox-${label.toLowerCase().replace(/\W+/g, '-')}`}>
         {value}
       </dd>
+      {hint ? <dd className="text-caption text-ink-500">{hint}</dd> : null}
     </div>
+  );
+}
+
+function RetryButton({ entry }: { entry: OutboxEntry }) {
+  const retry = useRetryOutboxEntry();
+  return (
+    <span className="inline-flex items-center gap-2">
+      <Button variant="secondary" className="!py-1" disabled={retry.isPending} onClick={() => retry.mutate(entry.id)}>
+        {retry.isPending ? 'Queuing…' : 'Try again'}
+        <span className="sr-only"> to send {entry.subject}</span>
+      </Button>
+      {retry.error ? <span className="text-caption text-fault-700">{retry.error.message}</span> : null}
+    </span>
   );
 }
 
@@ -26,6 +42,7 @@ function EntryItem({ entry, timeZone }: { entry: OutboxEntry; timeZone: string }
       <div className="flex flex-wrap items-baseline gap-x-2.5 gap-y-1">
         {failed ? <Badge tone="fault">Failed</Badge> : <Badge tone="caution">Waiting</Badge>}
         <span className="min-w-0 break-words font-semibold text-ink-800">{entry.subject}</span>
+        {failed ? <RetryButton entry={entry} /> : null}
       </div>
       <div className="mt-1 flex flex-wrap gap-x-4 gap-y-0.5 text-caption text-ink-500">
         <span className="break-all">
@@ -34,7 +51,7 @@ function EntryItem({ entry, timeZone }: { entry: OutboxEntry; timeZone: string }
         <span>queued {formatLabInstant(entry.createdAt, timeZone)}</span>
         <span data-testid="outbox-attempts">
           {entry.attempts === 1 ? '1 attempt' : `${entry.attempts} attempts`}
-          {failed ? ', given up' : entry.attempts ? `, next try ${formatLabInstant(entry.nextAttemptAt, timeZone)}` : ''}
+          {failed ? ', refused by the mail server' : entry.attempts ? `, next try ${formatLabInstant(entry.nextAttemptAt, timeZone)}` : ''}
         </span>
       </div>
       {entry.lastError ? (
@@ -64,7 +81,7 @@ export function OutboxPanel({ timeZone, destination }: { timeZone: string; desti
       <div className="space-y-4">
         <dl className="grid grid-cols-3 gap-2 sm:max-w-md">
           <Count label="Waiting" value={counts.pending} tone="caution" />
-          <Count label="Sent" value={counts.sent} tone="pass" />
+          <Count label="Sent" value={counts.sent} tone="pass" hint="last 7 days" />
           <Count label="Failed" value={counts.failed} tone="fault" />
         </dl>
         {retrying ? (
