@@ -194,6 +194,12 @@ export const waitlistEntrySchema = z.object({
   status: z.enum(waitlistStatuses),
   /** When the slot freed and this person was offered it. */
   offeredAt: z.string().nullable(),
+  /**
+   * The freed time offered (the part of startsAt–endsAt that became free, never before the offer), which a
+   * claim books; kept once claimed, null while waiting.
+   */
+  offeredStartsAt: z.string().nullable(),
+  offeredEndsAt: z.string().nullable(),
   createdAt: z.string(),
 });
 export type WaitlistEntry = z.infer<typeof waitlistEntrySchema>;

@@ -83,4 +83,55 @@ describe('claiming a freed slot from the e-mail link', () => {
     expect((await researcher2.agent.get('/api/bookings/mine').expect(200)).body.upcoming).toHaveLength(1);
     expect(pageErrors).toEqual([]);
   });
+
+  it('for an offer of part of the waited time, shows that part; taken again, the person stays on the waitlist and a later offer books it', async () => {
+    const [researcher, researcher2, manager] = await Promise.all([signIn(live.app, 'researcher@lab.test'), signIn(live.app, 'researcher2@lab.test'), signIn(live.app, 'manager@lab.test')]);
+    const os1 = ((await manager.agent.get('/api/instruments')).body.instruments as { id: number; tag: string }[]).find((i) => i.tag === 'OS-1')!.id;
+    const book = (who: typeof manager, startsAt: string, endsAt: string) =>
+      who.agent.post('/api/bookings').set('x-csrf-token', who.csrf).send({ instrumentIds: [os1], startsAt, endsAt, purpose: 'Eye diagrams' });
+    const cancel = (who: typeof manager, id: number) => who.agent.post(`/api/bookings/${id}/cancel`).set('x-csrf-token', who.csrf).send({ reason: 'Not needed' }).expect(200);
+    // Sunniva waits for 13–17 while OS-1 is taken 13–14 and 15–16; only 15–16 is freed.
+    expect((await book(manager, at(8, 13), at(8, 14))).status).toBe(201);
+    const freed = await book(researcher, at(8, 15), at(8, 16));
+    expect(freed.status).toBe(201);
+    const entry = await researcher2.agent.post('/api/waitlist').set('x-csrf-token', researcher2.csrf).send({ instrumentId: os1, startsAt: at(8, 13), endsAt: at(8, 17) });
+    expect(entry.status).toBe(201);
+    await cancel(researcher, freed.body.booking.id);
+    // Someone books the freed hour before Sunniva opens her link.
+    const again = await book(manager, at(8, 15), at(8, 16));
+    expect(again.status).toBe(201);
+
+    const link = `${live.url}/waitlist/${entry.body.entry.id}/claim`;
+    const page = await openPage();
+    await page.goto(link);
+    await page.getByLabel('E-mail').fill('researcher2@lab.test');
+    await page.getByLabel('Password').fill('skewbench-demo');
+    await page.getByRole('button', { name: 'Sign in' }).click();
+    await page.waitForURL(`**/waitlist/${entry.body.entry.id}/claim`);
+    const refused = page.getByRole('status').filter({ hasText: 'The slot could not be booked.' });
+    await refused.waitFor();
+    expect(await refused.textContent()).toContain('you stay on the waitlist');
+    // The waited-for range comes with the waitlist, which may answer after the claim.
+    const offered = page.locator('p').filter({ hasText: 'Offered to you:' }).filter({ hasText: 'the time you are waiting for' });
+    await offered.waitFor();
+    const offeredText = (await offered.textContent())!;
+    expect(offeredText).toContain(`${labClock(at(8, 15))}–${labClock(at(8, 16))}`);
+    expect(offeredText).toMatch(new RegExp(`the time you are waiting for, .*${labClock(at(8, 13))}–${labClock(at(8, 17))}\\.$`));
+    await screenshot(page, 'waitlist-claim-partial-taken');
+    const [waiting] = (await researcher2.agent.get('/api/waitlist/mine').expect(200)).body.entries.filter((e: { id: number }) => e.id === entry.body.entry.id);
+    expect(waiting).toMatchObject({ status: 'waiting', offeredStartsAt: null });
+
+    // The hour frees again: offered again, and the same link now books exactly 15–16.
+    await cancel(manager, again.body.booking.id);
+    await page.goto(link);
+    const yours = page.getByRole('status').filter({ hasText: 'The slot is yours' });
+    await yours.waitFor();
+    expect(await yours.textContent()).toContain(`OS-1, `);
+    expect(await yours.textContent()).toContain(`${labClock(at(8, 15))}–${labClock(at(8, 16))}`);
+    await page.getByText('That is the part of the time you were waiting for').waitFor();
+    await screenshot(page, 'waitlist-claim-partial-booked');
+    const upcoming = (await researcher2.agent.get('/api/bookings/mine').expect(200)).body.upcoming as { startsAt: string; endsAt: string; instruments: { tag: string }[] }[];
+    expect(upcoming.filter((b) => b.instruments[0]!.tag === 'OS-1').map((b) => [b.startsAt, b.endsAt])).toEqual([[at(8, 15), at(8, 16)]]);
+    expect(pageErrors).toEqual([]);
+  });
 });

@@ -282,6 +282,59 @@ describe('handover on check-out', () => {
 
     expect((await outboxRows('handover')).map((r) => r.to_address).sort()).toEqual(['manager@lab.test', 'researcher2@lab.test']);
   });
+
+  /** Tobiah's bench booking: from two minutes from now, for an hour (check-in opens at once). */
+  async function benchUntilCheckOut(instrument: string) {
+    const start = new Date(Date.now() + 2 * 60_000);
+    const bench = await book(researcher, { instrumentIds: [tag[instrument]], startsAt: start.toISOString(), endsAt: new Date(start.getTime() + 3600_000).toISOString() });
+    expect(bench.status).toBe(201);
+    return { id: bench.body.booking.id as number, start };
+  }
+
+  it('the note arrives HTML-escaped in the HTML part and verbatim in the text part', async () => {
+    const bench = await benchUntilCheckOut('PS-1');
+    expect((await book(manager, { instrumentIds: [tag['PS-1']], startsAt: at(1, 19), endsAt: at(1, 20) })).status).toBe(201);
+    expect((await post(researcher, `/api/bookings/${bench.id}/check-in`)).status).toBe(200);
+    const note = '<script>alert(1)</script> & "quotes"';
+    expect((await post(researcher, `/api/bookings/${bench.id}/check-out`, { handoverNote: note, leftConnected: '<b>C-011</b> on port 1' })).status).toBe(200);
+
+    const [h, ...more] = (await delivered('manager@lab.test')).filter((m) => m.subject.startsWith('Handover'));
+    expect(more).toHaveLength(0);
+    expect(h!.text).toContain(`Handover note:\n  > ${note}\n`);
+    expect(h!.text).toContain('Left connected:\n  > <b>C-011</b> on port 1');
+    expect(h!.html).toContain('&lt;script&gt;alert(1)&lt;/script&gt; &amp; &quot;quotes&quot;');
+    expect(h!.html).toContain('&lt;b&gt;C-011&lt;/b&gt; on port 1');
+    expect(h!.html).not.toContain('<script');
+    expect(h!.html).not.toContain('<b>C-011');
+  });
+
+  it('skips a maintenance block to reach the next booking, and the block\'s lab manager gets the handover too', async () => {
+    const bench = await benchUntilCheckOut('SG-1');
+    // After the bench booking: a maintenance block, then Sunniva's booking, then another block (not next: no handover for it).
+    const block = await book(manager, { instrumentIds: [tag['SG-1']], startsAt: new Date(bench.start.getTime() + 2 * 3600_000).toISOString(), endsAt: new Date(bench.start.getTime() + 3 * 3600_000).toISOString(), kind: 'maintenance', purpose: 'Output attenuator check' });
+    const next = await book(researcher2, { instrumentIds: [tag['SG-1']], startsAt: at(1, 19), endsAt: at(1, 20) });
+    const laterBlock = await book(manager, { instrumentIds: [tag['SG-1']], startsAt: at(1, 21), endsAt: at(1, 22), kind: 'maintenance', purpose: 'Firmware' });
+    for (const r of [block, next, laterBlock]) expect(r.status).toBe(201);
+    expect((await post(researcher, `/api/bookings/${bench.id}/check-in`)).status).toBe(200);
+    expect((await post(researcher, `/api/bookings/${bench.id}/check-out`, { handoverNote: 'Output left off, RF cable on the rack hook.' })).status).toBe(200);
+
+    const [forNext, ...moreForNext] = (await delivered('researcher2@lab.test')).filter((m) => m.subject.startsWith('Handover'));
+    expect(moreForNext).toHaveLength(0);
+    expect(forNext!.subject).toBe('Handover for SG-1: note from Tobiah Renwick');
+    expect(forNext!.text).toMatch(new RegExp(`Your booking:\\s+SG-1, .*${labClock(at(1, 19))}–${labClock(at(1, 20))}`));
+    expect(hrefs(forNext!.html)).toContain(`${PUBLIC_URL}/bookings/${next.body.booking.id}`);
+
+    const [forBlock, ...moreForBlock] = (await delivered('manager@lab.test')).filter((m) => m.subject.startsWith('Handover'));
+    expect(moreForBlock).toHaveLength(0);
+    expect(forBlock!.subject).toBe('Handover for SG-1: note from Tobiah Renwick');
+    expect(forBlock!.text).toContain('Your maintenance block on SG-1 is the next work on the bench');
+    expect(forBlock!.text).toContain('Output left off, RF cable on the rack hook.');
+    expect(forBlock!.text).toMatch(/Your maintenance block:\s+SG-1, /);
+    const links = hrefs(forBlock!.html);
+    expect(links).toContain(`${PUBLIC_URL}/bookings/${block.body.booking.id}`);
+    expect(links).not.toContain(`${PUBLIC_URL}/bookings/${laterBlock.body.booking.id}`);
+    expect((await outboxRows('handover')).map((r) => r.to_address).sort()).toEqual(['manager@lab.test', 'researcher2@lab.test']);
+  });
 });
 
 describe('waitlist offer and POST /api/waitlist/:id/claim', () => {
@@ -323,21 +376,102 @@ describe('waitlist offer and POST /api/waitlist/:id/claim', () => {
     expect(await query(`SELECT id FROM bookings WHERE owner_id = :owner AND starts_at = :start AND status = 'confirmed'`, { owner: researcher2.user.id, start: at(7, 19) })).toHaveLength(1);
   });
 
-  it('refuses with 409 when someone booked the freed slot first, and the offer stays open', async () => {
+  it('refuses with 409 when someone booked the freed slot first and puts the entry back to waiting; a later freeing offers it again', async () => {
     const taken = await book(manager, { instrumentIds: [tag['OS-1']], startsAt: at(7, 19), endsAt: at(7, 20) });
     const entry = await wait(researcher2, 'OS-1', at(7, 19), at(7, 20));
     const entryId: number = entry.body.entry.id;
     expect((await post(manager, `/api/bookings/${taken.body.booking.id}/cancel`, { reason: 'Not needed' })).status).toBe(200);
-    expect((await book(researcher, { instrumentIds: [tag['OS-1']], startsAt: at(7, 19), endsAt: at(7, 20) })).status).toBe(201);
+    const again = await book(researcher, { instrumentIds: [tag['OS-1']], startsAt: at(7, 19), endsAt: at(7, 20) });
+    expect(again.status).toBe(201);
 
     const claim = await post(researcher2, `/api/waitlist/${entryId}/claim`);
     expect(claim.status).toBe(409);
-    expect(claim.body.error).toMatchObject({ code: 'booking_clash', message: 'OS-1 was booked again before you claimed it: the slot is no longer free.' });
+    expect(claim.body.error).toMatchObject({
+      code: 'booking_clash',
+      message: 'OS-1 was booked again before you claimed it, so the freed time is no longer free; you stay on the waitlist and get another e-mail when time you are waiting for becomes free again.',
+      details: { entryStatus: 'waiting', offered: { startsAt: at(7, 19), endsAt: at(7, 20) } },
+    });
     expect(claim.body.error.details.clashes[0]).toMatchObject({ tag: 'OS-1', owner: 'Tobiah Renwick' });
-    const [row] = await query<{ status: string }>('SELECT status FROM waitlist_entries WHERE id = :entryId', { entryId });
-    expect(row!.status).toBe('offered');
+    expect(await query('SELECT status, offered_at, offered_starts_at, offered_ends_at FROM waitlist_entries WHERE id = :entryId', { entryId })).toEqual([
+      { status: 'waiting', offered_at: null, offered_starts_at: null, offered_ends_at: null },
+    ]);
+    const mine = (await researcher2.agent.get('/api/waitlist/mine').expect(200)).body.entries.find((e: { id: number }) => e.id === entryId);
+    expect(mine).toMatchObject({ status: 'waiting', offeredAt: null, offeredStartsAt: null, offeredEndsAt: null });
+    // The link of the first message now says the slot has not been freed (again) yet.
+    expect((await post(researcher2, `/api/waitlist/${entryId}/claim`)).body.error.message).toMatch(/not been freed yet/);
+
+    // The slot frees again: the entry, still first in the queue, is offered it again and the claim books it.
+    await t.db.sequelize.query('DELETE FROM outbox');
+    expect((await post(researcher, `/api/bookings/${again.body.booking.id}/cancel`, { reason: 'Scope needed elsewhere' })).status).toBe(200);
+    expect((await outboxRows('waitlist-offer')).map((r) => r.to_address)).toEqual(['researcher2@lab.test']);
+    expect((await delivered('researcher2@lab.test')).at(-1)!.subject).toMatch(/^Free now: OS-1, /);
+    const second = await post(researcher2, `/api/waitlist/${entryId}/claim`);
+    expect(second.status).toBe(201);
+    expect(second.body.booking).toMatchObject({ startsAt: at(7, 19), endsAt: at(7, 20), owner: { id: researcher2.user.id } });
+    expect(await query('SELECT status FROM waitlist_entries WHERE id = :entryId', { entryId })).toEqual([{ status: 'fulfilled' }]);
   });
 
+  it('a claim refused by a booking rule (422) also puts the entry back to waiting', async () => {
+    const taken = await book(researcher, { instrumentIds: [tag['PSU-1']], startsAt: at(14, 19), endsAt: at(14, 20) });
+    const entry = await wait(researcher2, 'PSU-1', at(14, 19), at(14, 20));
+    const entryId: number = entry.body.entry.id;
+    expect((await post(researcher, `/api/bookings/${taken.body.booking.id}/cancel`, { reason: 'Not needed' })).status).toBe(200);
+    await t.db.sequelize.query(`UPDATE instruments SET status = 'maintenance' WHERE tag = 'PSU-1'`);
+    try {
+      const claim = await post(researcher2, `/api/waitlist/${entryId}/claim`);
+      expect(claim.status).toBe(422);
+      expect(claim.body.error).toMatchObject({ code: 'booking_rule', details: { entryStatus: 'waiting', issues: [{ rule: 'instrument-unavailable' }] } });
+      expect(claim.body.error.message).toBe(
+        'PSU-1 is in maintenance and cannot be booked. The freed time was not booked, but you stay on the waitlist and get another e-mail when time you are waiting for becomes free again.',
+      );
+    } finally {
+      await t.db.sequelize.query(`UPDATE instruments SET status = 'in-service' WHERE tag = 'PSU-1'`);
+    }
+    expect(await query('SELECT status, offered_starts_at FROM waitlist_entries WHERE id = :entryId', { entryId })).toEqual([{ status: 'waiting', offered_starts_at: null }]);
+    expect(await query(`SELECT id FROM bookings WHERE owner_id = :owner AND starts_at = :start`, { owner: researcher2.user.id, start: at(14, 19) })).toEqual([]);
+  });
+
+  it('offers only the freed part of a longer wait, and the claim books exactly that part', async () => {
+    // Sunniva waits for 13–17, when the bench is taken 13–14 and 15–16; only 15–16 is freed.
+    const kept = await book(manager, { instrumentIds: [tag['OS-1']], startsAt: at(11, 13), endsAt: at(11, 14) });
+    const freed = await book(researcher, { instrumentIds: [tag['OS-1']], startsAt: at(11, 15), endsAt: at(11, 16) });
+    for (const r of [kept, freed]) expect(r.status).toBe(201);
+    const entry = await wait(researcher2, 'OS-1', at(11, 13), at(11, 17));
+    expect(entry.status).toBe(201);
+    expect(entry.body.entry).toMatchObject({ status: 'waiting', offeredStartsAt: null, offeredEndsAt: null });
+    const entryId: number = entry.body.entry.id;
+    expect((await post(researcher, `/api/bookings/${freed.body.booking.id}/cancel`, { reason: 'Probe card late' })).status).toBe(200);
+
+    const mine = (await researcher2.agent.get('/api/waitlist/mine').expect(200)).body.entries.find((e: { id: number }) => e.id === entryId);
+    expect(mine).toMatchObject({ status: 'offered', startsAt: at(11, 13), endsAt: at(11, 17), offeredStartsAt: at(11, 15), offeredEndsAt: at(11, 16) });
+
+    const offer = (await delivered('researcher2@lab.test')).at(-1)!;
+    expect(offer.subject).toMatch(/^Free now: OS-1, /);
+    expect(offer.subject).toContain(`${labClock(at(11, 15))}–${labClock(at(11, 16))} (Europe/Berlin`);
+    expect(offer.text).toMatch(new RegExp(`Offered to you:\\s+.*, ${labClock(at(11, 15))}–${labClock(at(11, 16))} \\(Europe/Berlin`));
+    expect(offer.text).toMatch(new RegExp(`You wait for:\\s+.*, ${labClock(at(11, 13))}–${labClock(at(11, 17))} \\(Europe/Berlin`));
+    expect(offer.text).toContain('Part of the time you are waiting for on OS-1 has become free');
+
+    const claim = await post(researcher2, `/api/waitlist/${entryId}/claim`);
+    expect(claim.status).toBe(201);
+    expect(claim.body.booking).toMatchObject({ status: 'confirmed', startsAt: at(11, 15), endsAt: at(11, 16), owner: { id: researcher2.user.id } });
+    const [row] = await query<{ status: string; offered_starts_at: Date; offered_ends_at: Date }>('SELECT status, offered_starts_at, offered_ends_at FROM waitlist_entries WHERE id = :entryId', { entryId });
+    expect([row!.status, row!.offered_starts_at.toISOString(), row!.offered_ends_at.toISOString()]).toEqual(['fulfilled', at(11, 15), at(11, 16)]);
+  });
+
+  it('a freed slot that has already begun is offered from now on, never from the past', async () => {
+    const start = new Date(Date.now() + 2 * 60_000);
+    const end = new Date(start.getTime() + 2 * 3600_000);
+    const taken = await book(researcher, { instrumentIds: [tag['SA-1']], startsAt: start.toISOString(), endsAt: end.toISOString() });
+    expect(taken.status).toBe(201);
+    const entry = await wait(researcher2, 'SA-1', start.toISOString(), end.toISOString());
+    const sweep = new Date(start.getTime() + 31 * 60_000);
+    expect(await markNoShows(sweep, lab())).toBe(1);
+    const [row] = await query<{ status: string; offered_starts_at: Date; offered_ends_at: Date }>('SELECT status, offered_starts_at, offered_ends_at FROM waitlist_entries WHERE id = :id', { id: entry.body.entry.id });
+    expect([row!.status, row!.offered_starts_at.toISOString(), row!.offered_ends_at.toISOString()]).toEqual(['offered', sweep.toISOString(), end.toISOString()]);
+    // Withdrawn, so that later tests on SA-1 do not offer it anything.
+    expect((await researcher2.agent.delete(`/api/waitlist/${entry.body.entry.id}`).set('x-csrf-token', researcher2.csrf)).status).toBe(204);
+  });
   it('two claims at once (a double click, two tabs) book the slot once', async () => {
     const taken = await book(researcher, { instrumentIds: [tag['PSU-1']], startsAt: at(10, 19), endsAt: at(10, 20) });
     const entry = await wait(researcher2, 'PSU-1', at(10, 19), at(10, 20));
@@ -351,6 +485,44 @@ describe('waitlist offer and POST /api/waitlist/:id/claim', () => {
   it('answers a claim of an unknown entry with 404 and a bad id with 400', async () => {
     expect((await post(researcher2, '/api/waitlist/999999/claim')).status).toBe(404);
     expect((await post(researcher2, '/api/waitlist/abc/claim')).status).toBe(400);
+  });
+});
+
+describe('a moved booking offers only the time it gave up', () => {
+  const wait = (who: Who, instrument: string, startsAt: string, endsAt: string) => post(who, '/api/waitlist', { instrumentId: tag[instrument], startsAt, endsAt });
+  const patch = (who: Who, id: number, body: object) => who.agent.patch(`/api/bookings/${id}`).set('x-csrf-token', who.csrf).send(body);
+  const entryRow = (id: number) =>
+    query<{ status: string; from: string | null; to: string | null }>(
+      `SELECT status, to_char(offered_starts_at AT TIME ZONE 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS.MS"Z"') AS "from",
+              to_char(offered_ends_at AT TIME ZONE 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS.MS"Z"') AS "to" FROM waitlist_entries WHERE id = :id`,
+      { id },
+    ).then((rows) => rows[0]);
+
+  it('extending a booking offers nothing; moving its start later offers exactly the part given up', async () => {
+    const created = await book(researcher, { instrumentIds: [tag['OS-1']], startsAt: at(13, 19), endsAt: at(13, 20) });
+    const entry = await wait(researcher2, 'OS-1', at(13, 19), at(13, 20));
+    const entryId: number = entry.body.entry.id;
+
+    // 19–20 → 19–21: the old slot is still covered, so there is nothing to offer.
+    expect((await patch(researcher, created.body.booking.id, { endsAt: at(13, 21) })).status).toBe(200);
+    expect(await outboxRows('waitlist-offer')).toEqual([]);
+    expect(await entryRow(entryId)).toEqual({ status: 'waiting', from: null, to: null });
+
+    // 19–21 → 19:30–21: 19:00–19:30 is given up, and that is what Sunniva is offered.
+    expect((await patch(researcher, created.body.booking.id, { startsAt: at(13, 19, 30) })).status).toBe(200);
+    expect(await entryRow(entryId)).toEqual({ status: 'offered', from: at(13, 19), to: at(13, 19, 30) });
+    const offer = (await delivered('researcher2@lab.test')).find((m) => m.subject.startsWith('Free now'))!;
+    expect(offer.subject).toContain(`${labClock(at(13, 19))}–${labClock(at(13, 19, 30))} (Europe/Berlin`);
+  });
+
+  it('shrinking a booking to its middle offers both ends, each to whoever waits for it', async () => {
+    const created = await book(researcher, { instrumentIds: [tag['SG-1']], startsAt: at(14, 18), endsAt: at(14, 21) });
+    const early = await wait(researcher2, 'SG-1', at(14, 18), at(14, 19));
+    const late = await wait(manager, 'SG-1', at(14, 20), at(14, 21));
+    expect((await patch(researcher, created.body.booking.id, { startsAt: at(14, 19), endsAt: at(14, 20) })).status).toBe(200);
+    expect(await entryRow(early.body.entry.id)).toEqual({ status: 'offered', from: at(14, 18), to: at(14, 19) });
+    expect(await entryRow(late.body.entry.id)).toEqual({ status: 'offered', from: at(14, 20), to: at(14, 21) });
+    expect((await outboxRows('waitlist-offer')).map((r) => r.to_address).sort()).toEqual(['manager@lab.test', 'researcher2@lab.test']);
   });
 });
 

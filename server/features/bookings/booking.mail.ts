@@ -102,10 +102,28 @@ interface NextRow {
 }
 
 /**
- * A checked-out booking: for each of its instruments, the next active booking of that instrument; every owner of
- * those (except whoever checked out) gets one handover message naming their bookings, with the note, what was left
- * connected, the latest setup recorded for the checked-out booking and when the bench became free. Handover
- * messages cannot be switched off (topicOf('handover') is null), so enqueueForUser always queues them.
+ * The first active booking of `kind` on an instrument starting after `after` (and before `before`, when given),
+ * through booking_instruments (instrument_id, starts_at).
+ */
+async function nextOfKind(transaction: Transaction, instrumentId: number, kind: MailBooking['kind'], after: Date, exceptBookingId: number, before: Date | null): Promise<NextRow | undefined> {
+  const [row] = await db().query<NextRow>(
+    `SELECT bi.booking_id, bk.owner_id, bk.starts_at, bk.ends_at
+       FROM booking_instruments bi JOIN bookings bk ON bk.id = bi.booking_id
+      WHERE bi.instrument_id = :instrumentId AND bi.starts_at > :after AND (:before::timestamptz IS NULL OR bi.starts_at < :before)
+        AND bi.active AND bi.booking_id <> :exceptBookingId AND bk.kind = :kind AND bk.status IN ('confirmed', 'checked-in')
+      ORDER BY bi.starts_at LIMIT 1`,
+    { replacements: { instrumentId, after, before, exceptBookingId, kind }, type: QueryTypes.SELECT, transaction },
+  );
+  return row;
+}
+
+/**
+ * A checked-out booking: for each of its instruments, the next active booking (kind 'booking', not a maintenance
+ * block) of that instrument, and a maintenance block that comes before it, whose owner (a lab manager) works on
+ * the bench first; every owner of those (except whoever checked out) gets one handover message naming their
+ * bookings and blocks, with the note, what was left connected, the latest setup recorded for the checked-out
+ * booking and when the bench became free. Handover messages cannot be switched off (topicOf('handover') is
+ * null), so enqueueForUser always queues them.
  */
 export async function queueHandover(transaction: Transaction, lab: BookingMailLab, bookingId: number, checkedOutBy: { id: number; name: string }, checkedOutAt: Date): Promise<number> {
   const b = await loadBooking(bookingId, transaction);
@@ -114,23 +132,20 @@ export async function queueHandover(transaction: Transaction, lab: BookingMailLa
     type: QueryTypes.SELECT,
     transaction,
   });
-  // The next booking of each instrument, through booking_instruments (instrument_id, starts_at): the first active
-  // one starting after this booking's start. Instrument bookings never overlap, so that is the one that follows
-  // this booking: normally at or after the check-out time, or already begun when the check-out comes late.
-  const next = new Map<number, { owner: number; startsAt: Date; endsAt: Date; instruments: MailInstrument[] }>();
-  for (const instrument of b.instruments) {
-    const [row] = await db().query<NextRow>(
-      `SELECT bi.booking_id, bk.owner_id, bk.starts_at, bk.ends_at
-         FROM booking_instruments bi JOIN bookings bk ON bk.id = bi.booking_id
-        WHERE bi.instrument_id = :instrumentId AND bi.starts_at > :after AND bi.active AND bi.booking_id <> :bookingId
-          AND bk.status IN ('confirmed', 'checked-in')
-        ORDER BY bi.starts_at LIMIT 1`,
-      { replacements: { instrumentId: instrument.id, after: b.startsAt, bookingId }, type: QueryTypes.SELECT, transaction },
-    );
-    if (!row || row.owner_id === checkedOutBy.id) continue;
-    const entry = next.get(row.booking_id) ?? { owner: row.owner_id, startsAt: new Date(row.starts_at), endsAt: new Date(row.ends_at), instruments: [] };
+  // The next bookings of each instrument: the first active ones starting after this booking's start. Instrument
+  // bookings never overlap, so those are the ones that follow this booking: normally at or after the check-out
+  // time, or already begun when the check-out comes late.
+  const next = new Map<number, { owner: number; kind: MailBooking['kind']; startsAt: Date; endsAt: Date; instruments: MailInstrument[] }>();
+  const add = (row: NextRow | undefined, kind: MailBooking['kind'], instrument: MailInstrument) => {
+    if (!row || row.owner_id === checkedOutBy.id) return;
+    const entry = next.get(row.booking_id) ?? { owner: row.owner_id, kind, startsAt: new Date(row.starts_at), endsAt: new Date(row.ends_at), instruments: [] };
     entry.instruments.push(instrument);
     next.set(row.booking_id, entry);
+  };
+  for (const instrument of b.instruments) {
+    const booking = await nextOfKind(transaction, instrument.id, 'booking', b.startsAt, bookingId, null);
+    add(booking, 'booking', instrument);
+    add(await nextOfKind(transaction, instrument.id, 'maintenance', b.startsAt, bookingId, booking ? new Date(booking.starts_at) : null), 'maintenance', instrument);
   }
   if (!next.size) return 0;
 
@@ -141,7 +156,7 @@ export async function queueHandover(transaction: Transaction, lab: BookingMailLa
   );
   const byOwner = new Map<number, HandoverNext[]>();
   for (const [id, n] of [...next].sort((x, y) => x[1].startsAt.getTime() - y[1].startsAt.getTime())) {
-    byOwner.set(n.owner, [...(byOwner.get(n.owner) ?? []), { bookingId: id, startsAt: n.startsAt, endsAt: n.endsAt, instruments: n.instruments }]);
+    byOwner.set(n.owner, [...(byOwner.get(n.owner) ?? []), { bookingId: id, kind: n.kind, startsAt: n.startsAt, endsAt: n.endsAt, instruments: n.instruments }]);
   }
   let queued = 0;
   for (const [ownerId, bookings] of byOwner) {
@@ -162,23 +177,25 @@ export async function queueHandover(transaction: Transaction, lab: BookingMailLa
   return queued;
 }
 
-/** An offered waitlist entry: the person waiting gets the link that books the slot if it is still free. */
-export async function queueWaitlistOffer(transaction: Transaction, lab: BookingMailLab, entryId: number, freed: { from: Date; to: Date }, now: Date): Promise<void> {
+/**
+ * An offered waitlist entry: the person waiting gets the offered range (the freed part of the time they wait for)
+ * and the link that books it if it is still free.
+ */
+export async function queueWaitlistOffer(transaction: Transaction, lab: BookingMailLab, entryId: number, offered: { from: Date; to: Date }): Promise<void> {
   const [entry] = await db().query<{ user_id: number; starts_at: Date; ends_at: Date; note: string; instrument: MailInstrument }>(
     `SELECT w.user_id, w.starts_at, w.ends_at, w.note, json_build_object('id', i.id, 'tag', i.tag, 'name', i.name, 'location', i.location) AS instrument
        FROM waitlist_entries w JOIN instruments i ON i.id = w.instrument_id WHERE w.id = :entryId`,
     { replacements: { entryId }, type: QueryTypes.SELECT, transaction },
   );
   if (!entry) return;
-  const startsAt = new Date(Math.max(new Date(entry.starts_at).getTime(), now.getTime()));
   await enqueueForUser(transaction, 'waitlist-offer', entry.user_id, (r) =>
     waitlistOfferMail(lab, r.name, {
       entryId,
       instrument: entry.instrument,
-      startsAt,
-      endsAt: new Date(entry.ends_at),
-      freedFrom: new Date(Math.max(freed.from.getTime(), now.getTime())),
-      freedTo: freed.to,
+      startsAt: offered.from,
+      endsAt: offered.to,
+      waitedFrom: new Date(entry.starts_at),
+      waitedTo: new Date(entry.ends_at),
       note: entry.note,
     }),
   );

@@ -280,6 +280,19 @@ async function instrumentIdsOf(bookingId: number, transaction?: Transaction): Pr
   return rows.map((r) => r.instrument_id);
 }
 
+/**
+ * The parts of `old` that `kept` does not cover, in time order: none when the new range covers the old one, one
+ * when they overlap at one end or not at all, two when the new range sits inside the old one.
+ */
+function uncoveredParts(old: { from: Date; to: Date }, kept: { from: Date; to: Date }): { from: Date; to: Date }[] {
+  const parts: { from: Date; to: Date }[] = [];
+  const beforeEnd = new Date(Math.min(old.to.getTime(), kept.from.getTime()));
+  if (old.from < beforeEnd) parts.push({ from: old.from, to: beforeEnd });
+  const afterStart = new Date(Math.max(old.from.getTime(), kept.to.getTime()));
+  if (afterStart < old.to) parts.push({ from: afterStart, to: old.to });
+  return parts;
+}
+
 /** Move a booking (drag, resize) or change its texts; every rule is checked again. */
 export async function updateBooking(user: SessionUser, id: number, patch: UpdateBookingInput, clock: Clock, lab: MailLab): Promise<Booking> {
   if (patch.overrideCalibration && user.role !== 'manager') throw forbidden('Only a lab manager may override an overdue calibration.');
@@ -318,8 +331,10 @@ export async function updateBooking(user: SessionUser, id: number, patch: Update
       }
       const site = mailLab(lab, clock.timeZone);
       if (moved) {
-        // The part of the old slot that the move gave up may be what someone is waiting for.
-        for (const instrumentId of instruments.map((i) => i.id)) await offerFreedSlot(instrumentId, new Date(before.startsAt), new Date(before.endsAt), clock.now, transaction, site);
+        // The parts of the old slot that the move gave up may be what someone is waiting for.
+        for (const part of uncoveredParts({ from: new Date(before.startsAt), to: new Date(before.endsAt) }, { from: start, to: end })) {
+          for (const instrumentId of instruments.map((i) => i.id)) await offerFreedSlot(instrumentId, part.from, part.to, clock.now, transaction, site);
+        }
       }
       if (changed.length) await queueBookingChanged(transaction, site, id, user, { ...before, startsAt: new Date(before.startsAt), endsAt: new Date(before.endsAt) });
     });

@@ -14,7 +14,8 @@ const entryJson = `json_build_object(
   'instrument', json_build_object('id', i.id, 'tag', i.tag, 'name', i.name, 'kind', i.kind),
   'user', json_build_object('id', u.id, 'name', u.name),
   'startsAt', ${iso('w.starts_at')}, 'endsAt', ${iso('w.ends_at')},
-  'note', w.note, 'status', w.status, 'offeredAt', ${iso('w.offered_at')}, 'createdAt', ${iso('w.created_at')})`;
+  'note', w.note, 'status', w.status, 'offeredAt', ${iso('w.offered_at')},
+  'offeredStartsAt', ${iso('w.offered_starts_at')}, 'offeredEndsAt', ${iso('w.offered_ends_at')}, 'createdAt', ${iso('w.created_at')})`;
 
 async function entriesWhere(where: string, replacements: Record<string, unknown>): Promise<WaitlistEntry[]> {
   const [row] = await db().query<{ list: WaitlistEntry[] | null }>(
@@ -66,19 +67,27 @@ export async function leaveWaitlist(user: SessionUser, id: number): Promise<void
 /**
  * A slot of an instrument became free (cancel, no-show, early check-out, move): offer it to the first person
  * waiting for an overlapping time, and queue their message with the claim link in the same transaction.
+ * The offer is the part of the freed time that the person waits for and that is still ahead: the intersection
+ * of their range and [from, to), from `now` at the earliest; that is what the message shows and a claim books.
  * SKIP LOCKED keeps two freeing transactions from offering the same entry.
  */
 export async function offerFreedSlot(instrumentId: number, from: Date, to: Date, now: Date, transaction: Transaction, lab: BookingMailLab): Promise<number | null> {
-  if (to <= now) return null;
-  const [first] = await db().query<{ id: number }>(
-    `SELECT id FROM waitlist_entries
+  if (to <= now || to <= from) return null;
+  // Overlapping [from, to) and not over: the intersection with [now, ∞) is then never empty.
+  const [first] = await db().query<{ id: number; offered_starts_at: Date; offered_ends_at: Date }>(
+    `SELECT id, GREATEST(starts_at, (:from)::timestamptz, (:now)::timestamptz) AS offered_starts_at, LEAST(ends_at, (:to)::timestamptz) AS offered_ends_at
+       FROM waitlist_entries
       WHERE instrument_id = :instrumentId AND status = 'waiting' AND starts_at < :to AND ends_at > :from AND ends_at > :now
         AND starts_at > (:from)::timestamptz - interval '15 days'
       ORDER BY created_at, id LIMIT 1 FOR UPDATE SKIP LOCKED`,
     { replacements: { instrumentId, from, to, now }, type: QueryTypes.SELECT, transaction },
   );
   if (!first) return null;
-  await db().query(`UPDATE waitlist_entries SET status = 'offered', offered_at = :now WHERE id = :id`, { replacements: { id: first.id, now }, transaction });
-  await queueWaitlistOffer(transaction, lab, first.id, { from, to }, now);
+  const offered = { from: new Date(first.offered_starts_at), to: new Date(first.offered_ends_at) };
+  await db().query(`UPDATE waitlist_entries SET status = 'offered', offered_at = :now, offered_starts_at = :from, offered_ends_at = :to WHERE id = :id`, {
+    replacements: { id: first.id, now, ...offered },
+    transaction,
+  });
+  await queueWaitlistOffer(transaction, lab, first.id, offered);
   return first.id;
 }

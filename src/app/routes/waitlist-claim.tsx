@@ -3,22 +3,31 @@ import { useEffect, useRef } from 'react';
 import { Link, useParams } from 'react-router-dom';
 import { Loading, Notice, Panel } from '@/components/ui/feedback';
 import { useClaimWaitlistOffer } from '@/features/bookings/api/bookings.mutations';
+import { myWaitlistOptions } from '@/features/bookings/api/bookings.queries';
 import { BookingFacts } from '@/features/bookings/components/booking-facts';
-import { bookingRefusal, instrumentTags, refusalLines } from '@/features/bookings/utils/booking-text';
+import { bookingRefusal, claimRefusal, instrumentTags, refusalLines } from '@/features/bookings/utils/booking-text';
 import { formatLabRange } from '@/features/bookings/utils/lab-time';
 import { labInfoOptions } from '@/features/lab/api/lab.queries';
 import { ApiError } from '@/lib/api-client';
 
 const linkButton = 'inline-flex items-center rounded-chip px-3.5 py-2 text-body font-semibold transition-colors';
 
+/** Whether [startsAt, endsAt) leaves out part of the waited-for range: then the page says which part was freed. */
+const partOf = (range: { startsAt: string; endsAt: string }, waited: { startsAt: string; endsAt: string }) =>
+  Date.parse(range.startsAt) > Date.parse(waited.startsAt) || Date.parse(range.endsAt) < Date.parse(waited.endsAt);
+
 /**
- * /waitlist/:id/claim, the link of a freed-slot e-mail: opening it books the slot for the signed-in person (once,
- * even when React runs the effect twice) and shows the booking, or why it could not be made.
+ * /waitlist/:id/claim, the link of a freed-slot e-mail: opening it books the offered range (the freed part of the
+ * time the person waits for) for the signed-in person (once, even when React runs the effect twice) and shows the
+ * booking, or why it could not be made and what had been offered.
  */
 export function WaitlistClaimRoute() {
   const id = Number(useParams().id);
   const valid = Number.isInteger(id) && id > 0;
   const lab = useQuery(labInfoOptions());
+  // Only for the whole range the person waits for, which a claim does not change; the offer comes with the claim's answer.
+  const waitlist = useQuery({ ...myWaitlistOptions(), enabled: valid });
+  const waited = waitlist.data?.find((e) => e.id === id);
   const claim = useClaimWaitlistOffer();
   const { mutate } = claim;
   const claimed = useRef<number | null>(null);
@@ -36,7 +45,8 @@ export function WaitlistClaimRoute() {
     const refusal = bookingRefusal(claim.error);
     const taken = claim.error instanceof ApiError && claim.error.status === 409;
     // Already booked from this offer: the way on is the booking, not another slot.
-    const alreadyBooked = claim.error instanceof ApiError && (claim.error.details as { entryStatus?: string } | undefined)?.entryStatus === 'fulfilled';
+    const { entryStatus, offered } = claimRefusal(claim.error);
+    const alreadyBooked = entryStatus === 'fulfilled';
     const primary = `${linkButton} bg-copper-600 text-white hover:bg-copper-700`;
     const secondary = `${linkButton} bg-white text-ink-800 ring-1 ring-inset ring-ink-200 hover:bg-ptfe-100`;
     body = (
@@ -46,6 +56,15 @@ export function WaitlistClaimRoute() {
             <p className="font-semibold">The slot could not be booked.</p>
             <p className="mt-1">{claim.error.message}</p>
           </Notice>
+          {offered && timeZone ? (
+            <p className="text-body text-ink-700">
+              Offered to you: <span className="font-semibold text-ink-900">{formatLabRange(offered.startsAt, offered.endsAt, timeZone)}</span>
+              {waited && partOf(offered, waited) ? (
+                <>, the part that became free of the time you are waiting for, {formatLabRange(waited.startsAt, waited.endsAt, timeZone)}</>
+              ) : null}
+              .
+            </p>
+          ) : null}
           {refusal && timeZone ? (
             <ul className="list-disc space-y-1 pl-5 text-body text-ink-700" aria-label="What stands in the way">
               {refusalLines(claim.error, timeZone).map((line) => (
@@ -80,6 +99,12 @@ export function WaitlistClaimRoute() {
           <p className="font-semibold">
             The slot is yours: <span className="font-mono">{instrumentTags(booking)}</span>, {formatLabRange(booking.startsAt, booking.endsAt, timeZone)}.
           </p>
+          {waited && partOf(booking, waited) ? (
+            <p className="mt-1">
+              That is the part of the time you were waiting for ({formatLabRange(waited.startsAt, waited.endsAt, timeZone)}) that became free. To wait
+              for the rest, join the waitlist again from the calendar.
+            </p>
+          ) : null}
           <p className="mt-1">A confirmation with a calendar file is on its way by e-mail. Check in at the bench from 15 minutes before the start.</p>
         </Notice>
         <Panel title="Your booking">

@@ -217,6 +217,8 @@ export function noShowMail(lab: BookingMailLab, recipientName: string, b: MailBo
 
 export interface HandoverNext {
   bookingId: number;
+  /** A booking, or a maintenance block that comes before the next booking (its lab manager is at the bench first). */
+  kind: MailBooking['kind'];
   startsAt: Date;
   endsAt: Date;
   /** The instruments of this booking that the checked-out booking also held. */
@@ -234,36 +236,52 @@ export interface Handover {
   leftConnected: string | null;
   /** The latest setup recorded for the checked-out booking. */
   setup: { id: number; title: string } | null;
-  /** The recipient's next bookings on those instruments. */
+  /** The recipient's next bookings (and maintenance blocks) on those instruments, in time order. */
   next: HandoverNext[];
 }
 
+const slotWord = (n: HandoverNext) => (n.kind === 'maintenance' ? 'maintenance block' : 'booking');
+
 export function handoverMail(lab: BookingMailLab, recipientName: string, h: Handover): RenderedMail {
-  const nextTags = instrumentTags(h.next.flatMap((n) => n.instruments));
+  // A manager may have a maintenance block and then a booking of the same instrument: name each tag once.
+  const nextTags = [...new Set(h.next.flatMap((n) => n.instruments.map((i) => i.tag)))].join(' + ');
   const bookedBy = h.checkedOutBy === h.previousBooker ? h.previousBooker : `${h.previousBooker} (checked out by ${h.checkedOutBy})`;
+  const labelOf = (n: HandoverNext) => {
+    const sameKind = h.next.filter((x) => x.kind === n.kind);
+    const word = n.kind === 'maintenance' ? 'Your maintenance block' : 'Your booking';
+    return sameKind.length > 1 ? `${word} ${sameKind.indexOf(n) + 1}` : word;
+  };
   const facts: [string, string][] = [
     ['Bench free since', formatLabInstant(h.checkedOutAt, lab.timeZone)],
     ['Left by', bookedBy],
     [h.freed.length > 1 ? 'Instruments' : 'Instrument', instrumentNames(h.freed)],
-    ...h.next.map((n, i): [string, string] => [h.next.length > 1 ? `Your booking ${i + 1}` : 'Your booking', `${instrumentTags(n.instruments)}, ${formatLabRange(n.startsAt, n.endsAt, lab.timeZone)}`]),
+    ...h.next.map((n): [string, string] => [labelOf(n), `${instrumentTags(n.instruments)}, ${formatLabRange(n.startsAt, n.endsAt, lab.timeZone)}`]),
     ['Setup on the bench', h.setup ? h.setup.title : 'none recorded'],
   ];
-  // Each instrument has one next booking, so the bookings' tag lists tell them apart.
-  const links = h.next.map((n) => ({ label: `Open your booking of ${instrumentTags(n.instruments)}`, url: bookingLink(n.bookingId) }));
+  // Each instrument has one next booking and at most one block before it, so kind and tags tell them apart.
+  const links = h.next.map((n) => ({ label: `Open your ${slotWord(n)} of ${instrumentTags(n.instruments)}`, url: bookingLink(n.bookingId) }));
   const blocks = [{ heading: 'Handover note', text: h.note }];
   if (h.leftConnected) blocks.push({ heading: 'Left connected', text: h.leftConnected });
+  const maintenance = h.next.filter((n) => n.kind === 'maintenance');
+  const onlyMaintenance = maintenance.length === h.next.length;
+  const finished = `${h.previousBooker} has finished on ${instrumentTags(h.freed)} and left a handover note.`;
+  const lead = onlyMaintenance
+    ? `${finished} Your maintenance block${maintenance.length > 1 ? 's on' : ' on'} ${nextTags} ${maintenance.length > 1 ? 'are' : 'is'} the next work on the bench, so here is what they left on it.`
+    : `${finished} Your next ${h.next.length === 1 ? 'booking uses' : maintenance.length ? 'booking and maintenance use' : 'bookings use'} ${nextTags}, so here is what they left on the bench.`;
   return composeMail(lab, {
     subject: `Handover for ${nextTags}: note from ${h.previousBooker}`,
     recipientName,
-    lead: [
-      `${h.previousBooker} has finished on ${instrumentTags(h.freed)} and left a handover note. Your next booking${h.next.length > 1 ? 's use' : ' uses'} ${nextTags}, so here is what they left on the bench.`,
-    ],
+    lead: [lead],
     facts,
     blocks,
     links,
     action: h.setup ? { label: 'See the setup left on the bench', url: `/setups/${h.setup.id}` } : undefined,
     after: h.setup ? [] : ['No setup was recorded for that booking: check the bench before you start.'],
-    footer: [`You receive this because you have the next booking of ${nextTags} at ${lab.name}. Handover notes always go to the next booker.`],
+    footer: [
+      onlyMaintenance
+        ? `You receive this because your maintenance work on ${nextTags} comes next on the bench at ${lab.name}. Handover notes always go to whoever works on the bench next.`
+        : `You receive this because you have the next booking of ${nextTags} at ${lab.name}. Handover notes always go to the next booker.`,
+    ],
   });
 }
 

@@ -87,13 +87,16 @@ export function useLeaveWaitlist() {
 }
 
 /**
- * Book the freed slot of an offered waitlist entry (the link of the offer's e-mail). The server books it through
- * the normal booking rules and marks the entry fulfilled; 409 when the slot was taken again or the offer is closed.
+ * Book the freed slot of an offered waitlist entry (the link of the offer's e-mail): exactly the offered range. The
+ * server books it through the normal booking rules and marks the entry fulfilled; 409 when the slot was taken again
+ * (the entry is then waiting again) or the offer is closed.
  */
 export function useClaimWaitlistOffer() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: (entryId: number) => api(`/waitlist/${entryId}/claim`, { method: 'POST', schema: bookingResponseSchema }),
     onSuccess: ({ booking }) => refreshAfterChange(queryClient, booking.id),
+    // A claim refused by a clash or a rule puts the entry back to waiting.
+    onError: () => queryClient.invalidateQueries({ queryKey: bookingKeys.waitlist() }),
   });
 }

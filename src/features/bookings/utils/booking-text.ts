@@ -56,3 +56,18 @@ export function refusalLines(error: unknown, timeZone: string): string[] {
   const lines = [...refusal.clashes.map((c) => clashText(c, timeZone)), ...refusal.issues.map((i) => i.message)];
   return lines.length ? lines : [refusal.message];
 }
+
+const claimDetailsSchema = z.object({
+  entryStatus: z.string().optional(),
+  offered: z.object({ startsAt: z.string(), endsAt: z.string() }).optional(),
+});
+
+/**
+ * What a refused waitlist claim says about the offer, from the error's details: what became of the entry
+ * (`waiting` again after a clash or a broken rule, `fulfilled` when it was already claimed …) and the freed
+ * range that had been offered.
+ */
+export function claimRefusal(error: unknown): { entryStatus: string | null; offered: { startsAt: string; endsAt: string } | null } {
+  const details = error instanceof ApiError ? claimDetailsSchema.safeParse(error.details) : null;
+  return { entryStatus: details?.success ? (details.data.entryStatus ?? null) : null, offered: details?.success ? (details.data.offered ?? null) : null };
+}
