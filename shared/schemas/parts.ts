@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { dielectrics } from '../domain/cable.js';
+import { connectors, genders, type Gender } from '../domain/connectors.js';
 import { frequencyHzSchema, frequencyRangeIssue, isoDateSchema, notesSchema, num, tagSchema } from './common.js';
 
 export const partKinds = ['cable', 'attenuator', 'adapter', 'splitter', 'dc-block', 'other'] as const;
@@ -13,22 +14,15 @@ export const partKindLabels: Record<PartKind, string> = {
   other: 'Other',
 };
 
-export const connectors = ['sma', '2.92mm', '3.5mm', 'n', 'bnc', 'other'] as const;
-export type Connector = (typeof connectors)[number];
-export const connectorLabels: Record<Connector, string> = {
-  sma: 'SMA',
-  '2.92mm': '2.92 mm',
-  '3.5mm': '3.5 mm',
-  n: 'N',
-  bnc: 'BNC',
-  other: 'Other',
-};
+// Connector types and genders live in the domain (the mating rule needs them); re-exported for the API's users.
+export { connectorLabels, connectors, genderLabels, genders, genderShortLabels, type Connector, type Gender } from '../domain/connectors.js';
 
 export const partStatuses = ['ok', 'damaged', 'lost'] as const;
 export type PartStatus = (typeof partStatuses)[number];
 export const partStatusLabels: Record<PartStatus, string> = { ok: 'OK', damaged: 'Damaged', lost: 'Lost' };
 
 const connectorSchema = z.enum(connectors, { error: 'Choose SMA, 2.92 mm, 3.5 mm, N, BNC or other' });
+const genderSchema = z.enum(genders, { error: 'Choose male (plug) or female (jack)' });
 
 /** Every field a part can have; which apply depends on `kind` (checked below). */
 const partFields = z.strictObject({
@@ -36,7 +30,9 @@ const partFields = z.strictObject({
   kind: z.enum(partKinds, { error: 'Choose cable, attenuator, adapter, splitter, dc-block or other' }),
   description: z.string().trim().max(200, { error: 'Description must be at most 200 characters' }).optional(),
   connectorA: connectorSchema,
+  genderA: genderSchema,
   connectorB: connectorSchema,
+  genderB: genderSchema,
   status: z.enum(partStatuses, { error: 'Choose ok, damaged or lost' }).optional(),
   notes: notesSchema.optional(),
   // cable
@@ -75,6 +71,20 @@ function kindRules(value: Partial<PartShape>, ctx: z.RefinementCtx) {
   if (value.kind === 'attenuator' && value.lossDb == null) issue('lossDb', 'Enter the nominal attenuation in dB');
   if (frequencyRangeIssue(value.minFrequencyHz, value.maxFrequencyHz)) issue('maxFrequencyHz', 'Highest frequency must not be below the lowest');
 }
+
+/**
+ * The usual genders of each kind's ends (common practice): a cable has plugs at both ends, a pad or DC block a
+ * plug and a jack, a barrel adapter or a splitter jacks. The form proposes them for a new part, and migration
+ * 20261201000700 gave them to the parts stored before genders were recorded.
+ */
+export const typicalGenders: Record<PartKind, { genderA: Gender; genderB: Gender }> = {
+  cable: { genderA: 'male', genderB: 'male' },
+  attenuator: { genderA: 'male', genderB: 'female' },
+  adapter: { genderA: 'female', genderB: 'female' },
+  splitter: { genderA: 'female', genderB: 'female' },
+  'dc-block': { genderA: 'male', genderB: 'female' },
+  other: { genderA: 'male', genderB: 'female' },
+};
 
 /** Values of the optional fields when a new part leaves them out. */
 export const partDefaults = {

@@ -57,6 +57,50 @@ describe('inventory (lab manager)', () => {
 
     await page.goto(`${live.url}/parts?q=C-321`);
     await expect.poll(() => page.getByRole('row', { name: /C-321/ }).count()).toBe(1);
+    // A new cable starts with plugs at both ends.
+    expect(await page.getByRole('row', { name: /C-321/ }).getByRole('cell', { name: 'SMA m → SMA m', exact: true }).count()).toBe(1);
+  });
+
+  it('adds a 2.92 mm male to SMA female adapter: the kind proposes jacks, the manager sets end A to a plug', async () => {
+    await signInThroughForm(page, live.url, 'manager@lab.test');
+    await page.getByRole('link', { name: 'Cables & parts' }).click();
+    await page.getByRole('table').waitFor();
+    await page.getByRole('link', { name: 'Add part' }).click();
+    const form = page.getByRole('form', { name: 'New part' });
+    await form.getByLabel('Tag').fill('AD-321');
+    expect(await form.getByLabel('Gender, end A').inputValue()).toBe('male');
+    expect(await form.getByLabel('Gender, end B').inputValue()).toBe('male');
+    await form.getByLabel('Kind').selectOption('adapter');
+    // An adapter's usual genders are female/female (a barrel) until the manager chooses.
+    await expect.poll(() => form.getByLabel('Gender, end A').inputValue()).toBe('female');
+    expect(await form.getByLabel('Gender, end B').inputValue()).toBe('female');
+    await form.getByLabel('Description').fill('2.92 mm male to SMA female adapter for the browser test');
+    await form.getByLabel('Connector, end A').selectOption('2.92mm');
+    await form.getByLabel('Gender, end A').selectOption('male');
+    // Once a gender is chosen, changing the kind leaves it alone.
+    await form.getByLabel('Kind').selectOption('other');
+    await form.getByLabel('Kind').selectOption('adapter');
+    expect(await form.getByLabel('Gender, end A').inputValue()).toBe('male');
+    expect(await form.getByLabel('Gender, end B').inputValue()).toBe('female');
+    await form.getByLabel('Loss (dB), if known').fill('0.06');
+    await form.getByLabel('Delay (ps), if known').fill('36');
+    await screenshot(page, 'part-form-adapter-genders');
+    await form.getByRole('button', { name: 'Add part' }).click();
+    await page.waitForURL(/\/parts\/\d+$/);
+    await expect.poll(() => page.getByText('2.92 mm male (plug)').count()).toBe(1);
+    expect(await page.getByText('SMA female (jack)').count()).toBe(1);
+
+    await page.goto(`${live.url}/parts?kind=adapter`);
+    const row = page.getByRole('row', { name: /AD-321/ });
+    await expect.poll(() => row.count()).toBe(1);
+    expect(await row.getByRole('cell', { name: '2.92 mm m → SMA f', exact: true }).count()).toBe(1);
+    // The demo's barrels are jacks at both ends, its savers 2.92 mm plugs with an SMA jack.
+    expect(await page.getByRole('row', { name: /AD-10 / }).getByRole('cell', { name: 'SMA f → SMA f', exact: true }).count()).toBe(1);
+    expect(await page.getByRole('row', { name: /AD-20 / }).getByRole('cell', { name: '2.92 mm m → SMA f', exact: true }).count()).toBe(1);
+    await screenshot(page, 'parts-table-adapters');
+    await page.goto(`${live.url}/parts?q=trim`);
+    await expect.poll(() => page.getByRole('row', { name: /CB-SMA-16/ }).count()).toBe(1);
+    await screenshot(page, 'parts-table-trim-set');
   });
 
   it('uploads a photo of a part with a progress bar and sees its thumbnail', async () => {

@@ -16,7 +16,7 @@ import {
 /** A demo-like PTFE cable (VF 0.695, 1.4 dB/m at 6 GHz), as GET /api/parts returns it. */
 function cable(id: number, tag: string, lengthMm: number): Part {
   return {
-    id, tag, kind: 'cable', description: 'Flexible PTFE cable', connectorA: 'sma', connectorB: 'sma', status: 'ok', notes: '',
+    id, tag, kind: 'cable', description: 'Flexible PTFE cable', connectorA: 'sma', genderA: 'male', connectorB: 'sma', genderB: 'male', status: 'ok', notes: '',
     lengthMm, dielectric: 'ptfe', velocityFactor: 0.695, velocityFactorSource: 'datasheet', lossDbPerM: 1.4, lossRefHz: 6e9,
     measuredDelayPs: null, measuredOn: null, measuredHow: null, lossDb: null, delayPs: (lengthMm / 1000 / (0.695 * 299_792_458)) * 1e12,
     computedDelayPs: null, delaySource: 'computed', maxInputDbm: null, minFrequencyHz: null, maxFrequencyHz: null,

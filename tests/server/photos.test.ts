@@ -26,7 +26,7 @@ beforeAll(async () => {
     researcher: await signIn(t.app, 'researcher@lab.test'),
     visitor: await signIn(t.app, 'visitor@lab.test'),
   };
-  partId = await insertId(`INSERT INTO parts (tag, kind, connector_a, connector_b) VALUES ('PHOTO-T2', 'adapter', 'sma', '2.92mm') RETURNING id`);
+  partId = await insertId(`INSERT INTO parts (tag, kind, connector_a, gender_a, connector_b, gender_b) VALUES ('PHOTO-T2', 'adapter', 'sma', 'female', '2.92mm', 'male') RETURNING id`);
 });
 afterAll(async () => {
   await t.close();
@@ -308,7 +308,7 @@ describe('reading photos', () => {
   let ids: number[];
 
   beforeAll(async () => {
-    otherPartId = await insertId(`INSERT INTO parts (tag, kind, connector_a, connector_b) VALUES ('PHOTO-T3', 'dc-block', 'sma', 'sma') RETURNING id`);
+    otherPartId = await insertId(`INSERT INTO parts (tag, kind, connector_a, gender_a, connector_b, gender_b) VALUES ('PHOTO-T3', 'dc-block', 'sma', 'male', 'sma', 'female') RETURNING id`);
     const { agent, csrf } = as.manager;
     ids = [];
     for (const caption of ['first', 'second']) {

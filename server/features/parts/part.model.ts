@@ -1,6 +1,6 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
 import type { Dielectric } from '../../../shared/domain/cable.js';
-import type { Connector, PartKind, PartStatus } from '../../../shared/schemas/parts.js';
+import type { Connector, Gender, PartKind, PartStatus } from '../../../shared/schemas/parts.js';
 
 export class PartModel extends Model<InferAttributes<PartModel>, InferCreationAttributes<PartModel>> {
   declare id: CreationOptional<number>;
@@ -8,7 +8,9 @@ export class PartModel extends Model<InferAttributes<PartModel>, InferCreationAt
   declare kind: PartKind;
   declare description: string;
   declare connectorA: Connector;
+  declare genderA: Gender;
   declare connectorB: Connector;
+  declare genderB: Gender;
   declare status: PartStatus;
   declare notes: string;
   declare lengthMm: number | null;
@@ -39,7 +41,9 @@ export class PartModel extends Model<InferAttributes<PartModel>, InferCreationAt
         kind: { type: DataTypes.TEXT, allowNull: false },
         description: { type: DataTypes.TEXT, allowNull: false },
         connectorA: { type: DataTypes.TEXT, allowNull: false },
+        genderA: { type: DataTypes.TEXT, allowNull: false },
         connectorB: { type: DataTypes.TEXT, allowNull: false },
+        genderB: { type: DataTypes.TEXT, allowNull: false },
         status: { type: DataTypes.TEXT, allowNull: false },
         notes: { type: DataTypes.TEXT, allowNull: false },
         lengthMm: number(),

@@ -5,7 +5,7 @@ import { AppError } from '../../lib/errors.js';
 
 /** The CSV columns, in order: the API's own field names, so a file and a JSON body say the same thing. */
 export const csvColumns = [
-  'tag', 'kind', 'description', 'connectorA', 'connectorB', 'status', 'lengthMm', 'dielectric', 'velocityFactor',
+  'tag', 'kind', 'description', 'connectorA', 'genderA', 'connectorB', 'genderB', 'status', 'lengthMm', 'dielectric', 'velocityFactor',
   'lossDbPerM', 'lossRefHz', 'measuredDelayPs', 'measuredOn', 'measuredHow', 'lossDb', 'delayPs', 'maxInputDbm',
   'minFrequencyHz', 'maxFrequencyHz', 'notes',
 ] as const satisfies readonly (keyof PartValues)[];
@@ -53,10 +53,12 @@ export function parsePartsCsv(text: string): PartValues[] {
   if (records.length === 0) throw new AppError(400, 'invalid_csv', 'The file is empty: it needs a header row and at least one part.');
   const header = records[0]!.map((h) => h.trim());
   const unknown = header.filter((h) => !(csvColumns as readonly string[]).includes(h));
-  const missing = (['tag', 'kind', 'connectorA', 'connectorB'] as const).filter((c) => !header.includes(c));
+  const missing = (['tag', 'kind', 'connectorA', 'genderA', 'connectorB', 'genderB'] as const).filter((c) => !header.includes(c));
   if (unknown.length || missing.length) {
     const parts = [unknown.length ? `unknown columns: ${unknown.join(', ')}` : '', missing.length ? `missing columns: ${missing.join(', ')}` : ''].filter(Boolean);
-    throw new AppError(400, 'invalid_csv', `The header row does not match the parts columns (${parts.join('; ')}). Export the inventory to get a template.`, {
+    // Files exported before genders were recorded lack these two columns: say what goes in them.
+    const genderHint = missing.some((c) => c === 'genderA' || c === 'genderB') ? ' genderA and genderB give each end’s gender: male (plug) or female (jack).' : '';
+    throw new AppError(400, 'invalid_csv', `The header row does not match the parts columns (${parts.join('; ')}).${genderHint} Export the inventory to get a template.`, {
       columns: csvColumns,
     });
   }

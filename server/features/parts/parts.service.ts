@@ -6,7 +6,7 @@ import { AppError, conflict, notFound } from '../../lib/errors.js';
 import { PartModel } from './part.model.js';
 
 const storedFields = [
-  'tag', 'kind', 'description', 'connectorA', 'connectorB', 'status', 'notes', 'lengthMm', 'dielectric', 'velocityFactor',
+  'tag', 'kind', 'description', 'connectorA', 'genderA', 'connectorB', 'genderB', 'status', 'notes', 'lengthMm', 'dielectric', 'velocityFactor',
   'lossDbPerM', 'lossRefHz', 'measuredDelayPs', 'measuredOn', 'measuredHow', 'lossDb', 'delayPs', 'maxInputDbm',
   'minFrequencyHz', 'maxFrequencyHz',
 ] as const satisfies readonly (keyof PartValues)[];

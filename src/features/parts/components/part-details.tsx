@@ -1,5 +1,5 @@
 import { dielectricLabels } from '@shared/domain/cable';
-import { connectorLabels, partKindLabels, partStatusLabels, type Part } from '@shared/schemas/parts';
+import { connectorLabels, genderLabels, partKindLabels, partStatusLabels, type Part } from '@shared/schemas/parts';
 import { Fact } from '@/components/ui/fact';
 import { Badge, Notice, Panel } from '@/components/ui/feedback';
 import { formatDate, formatDb, formatDbm, formatHz, formatMm, formatPs, formatRange } from '@/utils/format';
@@ -14,7 +14,8 @@ export function PartDetails({ part: p }: { part: Part }) {
       <Panel>
         <dl className="grid gap-4 sm:grid-cols-2 lg:grid-cols-4">
           <Fact label="Kind">{partKindLabels[p.kind]}</Fact>
-          <Fact label="Connectors">{connectorLabels[p.connectorA]} / {connectorLabels[p.connectorB]}</Fact>
+          <Fact label="End A">{connectorLabels[p.connectorA]} {genderLabels[p.genderA]}</Fact>
+          <Fact label="End B">{connectorLabels[p.connectorB]} {genderLabels[p.genderB]}</Fact>
           <Fact label="Status"><Badge tone={p.status === 'ok' ? 'pass' : 'caution'}>{partStatusLabels[p.status]}</Badge></Fact>
           {p.kind === 'cable' ? (
             <>

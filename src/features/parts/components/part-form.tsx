@@ -1,19 +1,23 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { useState } from 'react';
+import { Fragment, useRef, useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { dielectricLabels, dielectrics } from '@shared/domain/cable';
 import { dbmToWatts } from '@shared/domain/power';
 import {
   connectorLabels,
   connectors,
+  genderLabels,
+  genders,
   partDefaults,
   partInputSchema,
   partKindLabels,
   partKinds,
   partStatusLabels,
   partStatuses,
+  typicalGenders,
   type Part,
   type PartInput,
+  type PartKind,
 } from '@shared/schemas/parts';
 import { Button } from '@/components/ui/button';
 import { Notice, Panel } from '@/components/ui/feedback';
@@ -27,7 +31,7 @@ const fields = Object.keys(partInputSchema.in.shape) as (keyof PartInput)[];
 const textOrNull = (v: unknown) => (v === '' || v == null ? null : String(v));
 
 function startValues(part?: Part): PartInput {
-  if (!part) return { tag: '', kind: 'cable', connectorA: 'sma', connectorB: 'sma', ...partDefaults, dielectric: 'ptfe' };
+  if (!part) return { tag: '', kind: 'cable', connectorA: 'sma', connectorB: 'sma', ...typicalGenders.cable, ...partDefaults, dielectric: 'ptfe' };
   const values = Object.fromEntries(fields.map((f) => [f, part[f]])) as PartInput;
   // The API reports the velocity factor in use; only a datasheet value is an input.
   if (part.velocityFactorSource !== 'datasheet') values.velocityFactor = null;
@@ -39,13 +43,24 @@ function startValues(part?: Part): PartInput {
 export function PartForm({ part, onSaved }: { part?: Part; onSaved: (saved: Part) => void }) {
   const save = useSavePart(part?.id);
   const [banner, setBanner] = useState<string | null>(null);
-  const { register, handleSubmit, formState, setError, watch } = useForm({
+  const { register, handleSubmit, formState, setError, setValue, watch } = useForm({
     resolver: zodResolver(partInputSchema),
     defaultValues: startValues(part),
     // Fields of other kinds leave the form's values when hidden, so they are not sent or checked.
     shouldUnregister: true,
   });
   const e = formState.errors;
+  // A new part starts with its kind's usual genders until the manager chooses one.
+  const gendersChosen = useRef(Boolean(part));
+  const kindField = register('kind', {
+    onChange: (event: { target: { value: PartKind } }) => {
+      const typical = typicalGenders[event.target.value];
+      if (gendersChosen.current || !typical) return;
+      setValue('genderA', typical.genderA);
+      setValue('genderB', typical.genderB);
+    },
+  });
+  const genderField = (name: 'genderA' | 'genderB') => register(name, { onChange: () => (gendersChosen.current = true) });
   const num = (name: keyof PartInput) => register(name, { setValueAs: numberOrNull });
   const [kind, lengthMm, dielectric, velocityFactor, measuredDelayPs, lossRefHz, maxInputDbm] = watch([
     'kind', 'lengthMm', 'dielectric', 'velocityFactor', 'measuredDelayPs', 'lossRefHz', 'maxInputDbm',
@@ -68,7 +83,7 @@ export function PartForm({ part, onSaved }: { part?: Part; onSaved: (saved: Part
       <Panel title="Part">
         <div className="grid gap-4 md:grid-cols-3">
           <TextField label="Tag" placeholder="C-017" error={e.tag?.message} {...register('tag')} />
-          <SelectField label="Kind" error={e.kind?.message} {...register('kind')}>
+          <SelectField label="Kind" error={e.kind?.message} {...kindField}>
             {partKinds.map((k) => <option key={k} value={k}>{partKindLabels[k]}</option>)}
           </SelectField>
           <SelectField label="Status" error={e.status?.message} {...register('status')}>
@@ -77,12 +92,18 @@ export function PartForm({ part, onSaved }: { part?: Part; onSaved: (saved: Part
           <div className="md:col-span-3">
             <TextField label="Description" placeholder="Flexible PTFE cable, 2.6 mm" error={e.description?.message} {...register('description')} />
           </div>
-          <SelectField label="Connector, end A" error={e.connectorA?.message} {...register('connectorA')}>
-            {connectors.map((c) => <option key={c} value={c}>{connectorLabels[c]}</option>)}
-          </SelectField>
-          <SelectField label="Connector, end B" error={e.connectorB?.message} {...register('connectorB')}>
-            {connectors.map((c) => <option key={c} value={c}>{connectorLabels[c]}</option>)}
-          </SelectField>
+          <div className="grid gap-4 sm:grid-cols-2 md:col-span-3 md:grid-cols-4">
+            {(['A', 'B'] as const).map((end) => (
+              <Fragment key={end}>
+                <SelectField label={`Connector, end ${end}`} error={e[`connector${end}`]?.message} {...register(`connector${end}`)}>
+                  {connectors.map((c) => <option key={c} value={c}>{connectorLabels[c]}</option>)}
+                </SelectField>
+                <SelectField label={`Gender, end ${end}`} error={e[`gender${end}`]?.message} {...genderField(`gender${end}`)}>
+                  {genders.map((g) => <option key={g} value={g}>{genderLabels[g]}</option>)}
+                </SelectField>
+              </Fragment>
+            ))}
+          </div>
         </div>
       </Panel>
 

@@ -1,7 +1,8 @@
 import { useQuery } from '@tanstack/react-query';
 import { createColumnHelper } from '@tanstack/react-table';
 import { Link } from 'react-router-dom';
-import { connectorLabels, partKindLabels, partStatusLabels, type Part } from '@shared/schemas/parts';
+import { describeEnds } from '@shared/domain/connectors';
+import { partKindLabels, partStatusLabels, type Part } from '@shared/schemas/parts';
 import { DataTable } from '@/components/ui/data-table';
 import { Badge, Loading, Notice } from '@/components/ui/feedback';
 import { formatDb, formatPs } from '@/utils/format';
@@ -26,7 +27,7 @@ const columns = [
   }),
   column.accessor((p) => partKindLabels[p.kind], { id: 'kind', header: 'Kind' }),
   column.accessor('description', { header: 'Description' }),
-  column.accessor((p) => `${connectorLabels[p.connectorA]} / ${connectorLabels[p.connectorB]}`, { id: 'connectors', header: 'Connectors' }),
+  column.accessor((p) => describeEnds(p), { id: 'connectors', header: 'Connectors', cell: (c) => <span className="whitespace-nowrap">{c.getValue()}</span> }),
   column.accessor('lengthMm', { header: 'Length', cell: (c) => (c.getValue() == null ? '—' : `${c.getValue()} mm`), enableGlobalFilter: false }),
   column.accessor('delayPs', {
     header: 'Delay',
