@@ -20,6 +20,7 @@ import { peopleRouter } from './features/people/people.routes.js';
 import { photosRouter } from './features/photos/photos.routes.js';
 import { partsRouter } from './features/parts/parts.routes.js';
 import { setupsRouter } from './features/setups/setups.routes.js';
+import { solverRouter } from './features/solver/solver.routes.js';
 import { loadSessionUser } from './lib/auth.js';
 import { requireCsrfToken } from './lib/csrf.js';
 import { apiNotFound, errorHandler } from './lib/error-handler.js';
@@ -115,6 +116,7 @@ export function createApp({ config, sequelize, sessionPool }: AppDeps): Express 
   app.use('/api/parts', partsRouter());
   app.use('/api/analysis', analysisRouter());
   app.use('/api/setups', setupsRouter());
+  app.use('/api/solver', solverRouter());
   const booking = bookingsRouter({ timeZone: config.lab.timeZone, lab: { name: config.lab.name, publicUrl: config.publicUrl } });
   app.use('/api/bookings', booking.bookings);
   app.use('/api/waitlist', booking.waitlist);

@@ -25,6 +25,7 @@ export const errorCodes = [
   'image_too_large',
   'mail_capture_off',
   'token_invalid',
+  'solver_limit',
 ] as const;
 export type ErrorCode = (typeof errorCodes)[number];
 

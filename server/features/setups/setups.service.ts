@@ -2,6 +2,7 @@ import { QueryTypes, type Transaction } from 'sequelize';
 import { stringify } from 'csv-stringify/sync';
 import { segmentDelayPs, segmentLossDb, type AnalysisResult } from '../../../shared/domain/analysis.js';
 import { hasRole } from '../../../shared/domain/roles.js';
+import { MAX_BOOKING_DAYS } from '../../../shared/schemas/bookings.js';
 import { describeSegment, diffSetups, type SetupDiff } from '../../../shared/domain/setup-diff.js';
 import type { SessionUser } from '../../../shared/schemas/people.js';
 import type { Setup, SetupDocument } from '../../../shared/schemas/setups.js';
@@ -92,29 +93,62 @@ async function revisionRow(setupId: number, number?: number): Promise<RevisionRo
   return row;
 }
 
-/** Parts that another setup holds in a booking overlapping this setup's booking (active bookings only). */
-async function partsHeld(setupId: number, revisionId: number, booking: { startsAt: string; endsAt: string }): Promise<Setup['partsHeld']> {
-  return db().query<Setup['partsHeld'][number]>(
-    `WITH mine AS (
+/** A part that a setup wires (at its latest revision) in an active booking overlapping a time slot. */
+export type PartHeld = Setup['partsHeld'][number];
+
+/**
+ * Parts wired by the latest revision of any setup of a confirmed or checked-in booking that overlaps
+ * [startsAt, endsAt), except setup `exceptSetupId` (a setup's own parts are not held against it); with
+ * `amongRevisionId`, only the parts that this revision wires too. The bookings are a range read on
+ * bookings_status_starts_at_idx (status, starts_at): a booking lasts at most MAX_BOOKING_DAYS, so one that
+ * overlaps the slot starts less than that before it; setups come by setups_booking_id_idx, their latest
+ * revision by the unique (setup_id, number).
+ */
+export async function partsHeldDuring(
+  slot: { startsAt: string; endsAt: string },
+  options: { exceptSetupId?: number | null; amongRevisionId?: number } = {},
+): Promise<PartHeld[]> {
+  const among = options.amongRevisionId !== undefined;
+  return db().query<PartHeld>(
+    `WITH ${among ? `mine AS (
        SELECT DISTINCT (v #>> '{}')::int AS part_id
          FROM setup_revisions r, jsonb_path_query(r.document, '$.analysis.paths[*].segments[*].partId') AS v
-        WHERE r.id = :revisionId),
+        WHERE r.id = :revisionId),` : ''}
      others AS (
        SELECT s.id, s.title, s.booking_id, u.name, r.document
          FROM bookings b
-         JOIN setups s ON s.booking_id = b.id AND s.id <> :setupId
+         JOIN setups s ON s.booking_id = b.id AND s.id <> :exceptSetupId
          JOIN users u ON u.id = s.owner_id
          JOIN LATERAL (SELECT document FROM setup_revisions WHERE setup_id = s.id ORDER BY number DESC LIMIT 1) r ON true
         WHERE b.status IN ('confirmed', 'checked-in')
-          AND b.starts_at < :endsAt AND b.starts_at > (:startsAt)::timestamptz - interval '14 days' AND b.ends_at > :startsAt)
+          AND b.starts_at < :endsAt AND b.starts_at > (:startsAt)::timestamptz - interval '${MAX_BOOKING_DAYS} days' AND b.ends_at > :startsAt)
      SELECT DISTINCT o.id AS "setupId", o.title AS "setupTitle", o.booking_id AS "bookingId", o.name AS owner, p.id AS "partId", p.tag
        FROM others o
        CROSS JOIN LATERAL jsonb_path_query(o.document, '$.analysis.paths[*].segments[*].partId') AS v
-       JOIN mine ON mine.part_id = (v #>> '{}')::int
-       JOIN parts p ON p.id = mine.part_id
-      ORDER BY p.tag`,
-    { replacements: { setupId, revisionId, startsAt: booking.startsAt, endsAt: booking.endsAt }, type: QueryTypes.SELECT },
+       ${among ? `JOIN mine ON mine.part_id = (v #>> '{}')::int` : ''}
+       JOIN parts p ON p.id = (v #>> '{}')::int
+      ORDER BY p.tag, o.id`,
+    {
+      replacements: { exceptSetupId: options.exceptSetupId ?? 0, revisionId: options.amongRevisionId ?? null, startsAt: slot.startsAt, endsAt: slot.endsAt },
+      type: QueryTypes.SELECT,
+    },
   );
+}
+
+/** Parts of this revision that another setup holds in a booking overlapping this setup's booking. */
+function partsHeld(setupId: number, revisionId: number, booking: { startsAt: string; endsAt: string }): Promise<PartHeld[]> {
+  return partsHeldDuring(booking, { exceptSetupId: setupId, amongRevisionId: revisionId });
+}
+
+/** The time slot of a booking, or of a setup's booking (for the parts other setups hold meanwhile); null when there is none. */
+export async function bookingSlot(ref: { bookingId: number } | { setupId: number }): Promise<{ bookingId: number; startsAt: string; endsAt: string } | null> {
+  const [row] = await db().query<{ bookingId: number; startsAt: string; endsAt: string }>(
+    'setupId' in ref
+      ? `SELECT b.id AS "bookingId", ${iso('b.starts_at')} AS "startsAt", ${iso('b.ends_at')} AS "endsAt" FROM setups s JOIN bookings b ON b.id = s.booking_id WHERE s.id = :id`
+      : `SELECT b.id AS "bookingId", ${iso('b.starts_at')} AS "startsAt", ${iso('b.ends_at')} AS "endsAt" FROM bookings b WHERE b.id = :id`,
+    { replacements: { id: 'setupId' in ref ? ref.setupId : ref.bookingId }, type: QueryTypes.SELECT },
+  );
+  return row ?? null;
 }
 
 /** A setup at its latest revision, or at revision `number`. */

@@ -23,6 +23,8 @@ function EditLatest({ setup, parts, instruments }: { setup: LoadedSetup; parts: 
       parts={parts}
       instruments={instruments}
       bookedInstrumentIds={setup.booking.instruments.map((i) => i.id)}
+      bookingId={setup.bookingId}
+      setupId={setup.id}
       saving={save.isPending}
       error={save.error}
       submitLabel="Save as a new revision"

@@ -80,6 +80,7 @@ function NewSetupEditor({ booking, parts, instruments, timeZone }: { booking: Bo
         parts={parts}
         instruments={instruments}
         bookedInstrumentIds={booking.instruments.map((i) => i.id)}
+        bookingId={booking.id}
         saving={create.isPending}
         error={create.error}
         submitLabel="Save setup"

@@ -18,6 +18,8 @@ export interface SetupEditorContextValue {
   instruments: Instrument[];
   /** Instruments of the setup's booking: another generator or analyzer may be in someone else's hands. */
   booked: ReadonlySet<number>;
+  /** The booking the setup is for, and the setup itself once saved: the cable finder works in that time slot. */
+  scope: { bookingId: number; setupId?: number };
 }
 
 export const SetupEditorContext = createContext<SetupEditorContextValue | null>(null);

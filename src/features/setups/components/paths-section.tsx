@@ -2,6 +2,7 @@ import { Button } from '@/components/ui/button';
 import { Panel } from '@/components/ui/feedback';
 import { formatDb, formatHz, formatPs } from '@/utils/format';
 import { chainOf, editableChain, emptySegment, pathIndex } from '../utils/setup-draft';
+import { CableSolver } from './cable-solver';
 import { useSetupEditor } from './editor-context';
 import { roleLabels } from './sources-section';
 import { SegmentEditor } from './segment-editor';
@@ -14,6 +15,7 @@ export function PathsSection() {
       <p className="mb-4 text-body text-ink-500">
         One chain per source and input, in order from the generator to the chip input. Pick parts from the inventory, or describe an ad-hoc part.
       </p>
+      <CableSolver />
       <div className="space-y-6">
         {draft.sources.map((source, i) => (
           <section key={source.id} aria-label={`Paths of ${source.key || `source ${i + 1}`}`}>

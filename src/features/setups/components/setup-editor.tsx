@@ -25,6 +25,9 @@ export interface SetupEditorProps {
   instruments: Instrument[];
   /** Instruments of the setup's booking. */
   bookedInstrumentIds: number[];
+  /** The setup's booking, and the setup when it exists (its own parts are not held against it). */
+  bookingId: number;
+  setupId?: number;
   onSave: (document: SetupDocument, note: string) => void;
   saving: boolean;
   /** The save's error: its field issues (`document.…` paths) land on the fields, anything else above the button. */
@@ -50,7 +53,7 @@ function serverFieldErrors(error: unknown): Map<string, string> {
  * A plain state object rather than react-hook-form: the paths form a grid of sources × inputs that follows
  * the number of inputs and the source list, which field arrays model poorly; the schema still decides.
  */
-export function SetupEditor({ initial, parts, instruments, bookedInstrumentIds, onSave, saving, error, submitLabel, cancelTo, renderAnalysis }: SetupEditorProps) {
+export function SetupEditor({ initial, parts, instruments, bookedInstrumentIds, bookingId, setupId, onSave, saving, error, submitLabel, cancelTo, renderAnalysis }: SetupEditorProps) {
   const [draft, setDraft] = useState(initial);
   const [touched, setTouched] = useState<ReadonlySet<string>>(new Set());
   const [submitted, setSubmitted] = useState(false);
@@ -68,6 +71,7 @@ export function SetupEditor({ initial, parts, instruments, bookedInstrumentIds, 
 
   const partsById = useMemo(() => new Map(parts.map((p) => [p.id, p])), [parts]);
   const booked = useMemo(() => new Set(bookedInstrumentIds), [bookedInstrumentIds]);
+  const scope = useMemo(() => ({ bookingId, setupId }), [bookingId, setupId]);
   const check = useMemo(() => checkDraft(draft, partsById), [draft, partsById]);
   // The engine runs a null search and a 181-point pattern: let typing settle for a moment first.
   const analysisInput = useDebouncedValue(check.analysisInput, 120);
@@ -81,6 +85,7 @@ export function SetupEditor({ initial, parts, instruments, bookedInstrumentIds, 
     partsById,
     instruments,
     booked,
+    scope,
     update: (change, path) => {
       setDraft((current) => {
         const next = structuredClone(current);
