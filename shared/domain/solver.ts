@@ -239,6 +239,8 @@ interface ChainSet {
   order: Uint32Array;
   bucketStart: Uint32Array;
   buckets: number;
+  /** Per segment count, the buckets that hold chains. */
+  nonEmpty: number[][];
 }
 
 function buildChains(problem: SolverProblem, start: ConnectorEnd | null, bucketWidthPs: number): ChainSet {
@@ -312,6 +314,7 @@ function buildChains(problem: SolverProblem, start: ConnectorEnd | null, bucketW
     order: new Uint32Array(total),
     bucketStart: new Uint32Array(1),
     buckets: 0,
+    nonEmpty: [],
   };
   const partDelay = parts.map((p) => p.delayPs);
   const partLength = parts.map((p) => p.lengthMm);
@@ -414,6 +417,11 @@ function buildChains(problem: SolverProblem, start: ConnectorEnd | null, bucketW
   const fill = counts.slice();
   for (let i = 0; i < set.count; i++) set.order[fill[slotOf(i)]!++] = i;
   set.buckets = buckets;
+  set.nonEmpty = Array.from({ length: width }, (_, level) => {
+    const list: number[] = [];
+    for (let b = 0; b < buckets; b++) if (counts[level * buckets + b + 1]! > counts[level * buckets + b]!) list.push(b);
+    return list;
+  });
   return set;
 }
 
@@ -472,7 +480,7 @@ interface Scoring {
   rest: Float64Array;
 }
 
-function scoringOf(problem: SolverProblem, set: ChainSet, paths: PathSpec[]): Scoring {
+function scoringOf(problem: SolverProblem, set: ChainSet, paths: PathSpec[], floors: number[]): Scoring {
   const lossCache = new Map<number, Float64Array>();
   const lossOf = (frequencyHz: number) => {
     let a = lossCache.get(frequencyHz);
@@ -503,8 +511,21 @@ function scoringOf(problem: SolverProblem, set: ChainSet, paths: PathSpec[]): Sc
     }
     return m;
   });
+  // rest[i]: the paths of i's source from i on need at least their least scores (or, from the source's first path
+  // on, its best score alone), and every later source at least its best score alone (`floors`, 0 when unknown).
   const rest = new Float64Array(paths.length + 1);
-  for (let i = paths.length - 1; i >= 0; i--) rest[i] = rest[i + 1]! + minScores[i]!;
+  let later = 0;
+  let within = 0;
+  for (let i = paths.length - 1; i >= 0; i--) {
+    const s = paths[i]!.source;
+    within += minScores[i]!;
+    const first = i === 0 || paths[i - 1]!.source !== s;
+    rest[i] = (first ? Math.max(within, floors[s] ?? 0) : within) + later;
+    if (first) {
+      later += Math.max(within, floors[s] ?? 0);
+      within = 0;
+    }
+  }
   return { scoreArrays, rest };
 }
 
@@ -585,6 +606,29 @@ function search(problem: SolverProblem, set: ChainSet, paths: PathSpec[], scorin
     }
   };
 
+  /**
+   * The non-empty delay buckets of `seg`-segment chains that can start the source at `depth`: every later input of
+   * the source has some chain of at most `othersMaxSeg` segments in its shifted window. Depends on neither the
+   * parts in use nor the branch, so it is worked out once per search and reused by every branch that reaches here.
+   */
+  const passCache = new Map<string, number[]>();
+  const passingBuckets = (depth: number, seg: number, othersMaxSeg: number): number[] => {
+    const key = `${depth}|${seg}|${othersMaxSeg}`;
+    let list = passCache.get(key);
+    if (!list) {
+      list = [];
+      const path = paths[depth]!;
+      const others = paths.filter((p, i) => i > depth && p.source === path.source);
+      for (const b of set.nonEmpty[seg - 1]!) {
+        const lo = set.minDelay + b * set.bucketWidthPs - path.target;
+        const hi = lo + set.bucketWidthPs;
+        if (others.every((o) => anyIn(set, lo + o.target - 2 * bound, hi + o.target + 2 * bound, othersMaxSeg))) list.push(b);
+      }
+      passCache.set(key, list);
+    }
+    return list;
+  };
+
   const window: number[][] = paths.map(() => []);
   const visit = (depth: number, scoreSum: number, segSum: number) => {
     if (budget.nodes++ > budget.max) return;
@@ -637,19 +681,12 @@ function search(problem: SolverProblem, set: ChainSet, paths: PathSpec[], scorin
     if (!Number.isFinite(savedMin)) {
       // The first input of a source may take any chain. Walk the chains by segments, then by delay bucket; skip a
       // bucket whole when another input of the source has no chain at all in its shifted window.
-      const others = paths.filter((p, i) => i > depth && p.source === s);
       for (let seg = 1; seg <= maxSegHere; seg++) {
         const othersMaxSeg = Math.min(problem.maxSegments, segmentBudget - segSum - seg - (after - 1));
-        if (others.length && othersMaxSeg < 1) break;
+        if (after > 0 && othersMaxSeg < 1) break;
         const base = (seg - 1) * set.buckets;
-        for (let b = 0; b < set.buckets; b++) {
-          const from = set.bucketStart[base + b]!;
-          const to = set.bucketStart[base + b + 1]!;
-          if (from === to) continue;
-          const lo = set.minDelay + b * set.bucketWidthPs - path.target;
-          const hi = lo + set.bucketWidthPs;
-          if (!others.every((o) => anyIn(set, lo + o.target - 2 * bound, hi + o.target + 2 * bound, othersMaxSeg))) continue;
-          for (let j = from; j < to; j++) {
+        for (const b of passingBuckets(depth, seg, othersMaxSeg)) {
+          for (let j = set.bucketStart[base + b]!; j < set.bucketStart[base + b + 1]!; j++) {
             tryChain(set.order[j]!);
             if (budget.nodes > budget.max) return;
           }
@@ -661,7 +698,8 @@ function search(problem: SolverProblem, set: ChainSet, paths: PathSpec[], scorin
     const list = window[depth]!;
     list.length = 0;
     chainsIn(set, savedMax - 2 * bound + path.target, savedMin + 2 * bound + path.target, maxSegHere, list);
-    if (list.length > 1) {
+    // chainsIn lists by segments already: that is the score order when fewest segments is the preference.
+    if (list.length > 1 && !bySegments) {
       const centre = (savedMin + savedMax) / 2 + path.target;
       list.sort((a, b) => scores[a]! - scores[b]! || Math.abs(set.delay[a]! - centre) - Math.abs(set.delay[b]! - centre));
     }
@@ -682,9 +720,22 @@ function search(problem: SolverProblem, set: ChainSet, paths: PathSpec[], scorin
  */
 function bestWithin(problem: SolverProblem, set: ChainSet, paths: PathSpec[], bound: number, byError: boolean, budget: { nodes: number; max: number }): Found[] {
   const most = paths.length * problem.maxSegments;
-  const scoring = scoringOf(problem, set, paths);
+  // With several sources: each one's best score alone (its parts free of the others) bounds what it needs
+  // together with them; a source with no answer alone has none together either.
+  const sources = [...new Set(paths.map((p) => p.source))];
+  const floors: number[] = [];
+  if (sources.length > 1 && !byError) {
+    for (const s of sources) {
+      const alone = bestWithin({ ...problem, limit: 1 }, set, paths.filter((p) => p.source === s), bound, false, budget);
+      if (budget.nodes > budget.max) break;
+      if (!alone.length) return [];
+      floors[s] = alone[0]!.score;
+    }
+  }
+  const scoring = scoringOf(problem, set, paths, floors);
+  const firstBudget = problem.prefer === 'fewest-segments' ? Math.max(paths.length, Math.ceil(rest0(scoring) - EPS)) : paths.length;
   let found: Found[] = [];
-  for (let segments = paths.length; segments <= most; segments++) {
+  for (let segments = firstBudget; segments <= most; segments++) {
     found = search(problem, set, paths, scoring, { bound, byError, segmentBudget: segments, seed: found }, budget);
     if (budget.nodes > budget.max) return found;
     // Ranked by segments (and not by error), `limit` answers within this budget are the best there are.
@@ -694,6 +745,9 @@ function bestWithin(problem: SolverProblem, set: ChainSet, paths: PathSpec[], bo
   if (problem.prefer === 'fewest-segments' && !byError) return found;
   return search(problem, set, paths, scoring, { bound, byError, segmentBudget: Infinity, seed: found }, budget);
 }
+
+/** The least total score any complete assignment can have. */
+const rest0 = (scoring: Scoring) => scoring.rest[0]!;
 
 // ------------------------------------------------------------------ answer
 
@@ -753,7 +807,7 @@ function toProposal(problem: SolverProblem, set: ChainSet, paths: PathSpec[], fo
       cautions,
     };
   });
-  const sources: ProposalSource[] = problem.sources.map((src, s) => {
+  const sources: ProposalSource[] = problem.sources.map((src) => {
     const mine = out.filter((p) => p.source === src.key).sort((a, b) => a.channel - b.channel);
     const relative = mine.map((p) => p.chainDelayPs - mine[0]!.chainDelayPs);
     const targets = targetDelays(problem, src);
@@ -769,7 +823,6 @@ function toProposal(problem: SolverProblem, set: ChainSet, paths: PathSpec[], fo
       relativeDelaysPs: relative,
       maxErrorPs: Math.max(...mine.map((p) => Math.abs(p.errorPs))),
     };
-    void s;
   });
   const maxError = Math.max(0, ...out.map((p) => Math.abs(p.errorPs)));
   return {
@@ -807,7 +860,9 @@ function limitsOf(problem: SolverProblem, set: ChainSet, paths: PathSpec[], clos
   }
   if (closest) {
     limits.push(`No combination of the usable parts comes closer than ${closest.maxErrorPs.toFixed(2)} ps (tolerance ${problem.tolerancePs} ps): cables graded in finer steps of length, or measured delays, would help.`);
-    if (closest.paths.some((p) => p.segments === problem.maxSegments)) limits.push(`The closest proposal already uses ${problem.maxSegments} segments on some paths: allowing more segments per path may get closer.`);
+    if (closest.paths.some((p) => p.segments === problem.maxSegments)) {
+      limits.push(`The closest proposal already uses ${problem.maxSegments} segment${problem.maxSegments === 1 ? '' : 's'} on some paths: allowing more segments per path may get closer.`);
+    }
   }
   return limits;
 }
@@ -841,10 +896,12 @@ export function solveCables(problem: SolverProblem): SolverAnswer {
     }
   }
   const proposals = found.map((f, i) => toProposal(problem, set, paths, f, i + 1, start));
-  return {
-    feasible,
-    proposals,
-    limits: feasible ? [] : limitsOf(problem, set, paths, proposals[0]),
-    search: { chains: set.count, nodes: budget.nodes, complete: budget.nodes <= budget.max },
-  };
+  const complete = budget.nodes <= budget.max;
+  const limits = feasible ? [] : limitsOf(problem, set, paths, proposals[0]);
+  if (!complete) {
+    limits.unshift(
+      `The search stopped after ${budget.max.toLocaleString('en')} steps, so these are the best proposals found, not proven the best${feasible ? '' : ', and a proposal within the tolerance may exist'}: allow fewer segments per path, solve one source at a time, or offer fewer parts.`,
+    );
+  }
+  return { feasible, proposals, limits, search: { chains: set.count, nodes: budget.nodes, complete } };
 }
