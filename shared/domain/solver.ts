@@ -645,7 +645,7 @@ function search(problem: SolverProblem, set: ChainSet, paths: PathSpec[], scorin
     const savedMin = uMin[s]!;
     const savedMax = uMax[s]!;
     const scores = scoreArrays[depth]!;
-    /** Try chain c here; false when its score already rules it out (later candidates score no better). */
+    /** Try chain c here; false only when its score alone rules it out (later candidates, in score order, too). */
     const tryChain = (c: number) => {
       budget.nodes++;
       const u = set.delay[c]! - path.target;
@@ -653,7 +653,10 @@ function search(problem: SolverProblem, set: ChainSet, paths: PathSpec[], scorin
       const hi = Math.max(savedMax, u);
       const lbError = Math.max(errorNow(), (hi - lo) / 2);
       const sc = scores[c]!;
-      if (!hopeful(scoreSum + sc + rest[depth + 1]!, lbError)) return false;
+      if (!hopeful(scoreSum + sc + rest[depth + 1]!, lbError)) {
+        // Ruled out by its score alone (then no later candidate, in score order, can do better)?
+        return !(best.length >= limit && scoreSum + sc + rest[depth + 1]! > best[best.length - 1]!.score + EPS);
+      }
       if (!takes(c)) return true;
       if (bySegments) {
         // A tighter bound: the later inputs of this source need at least the fewest segments found in their windows.
@@ -885,13 +888,21 @@ export function solveCables(problem: SolverProblem): SolverAnswer {
   const feasible = found.length > 0;
   if (!feasible && set.count > 0 && problem.parts.length >= paths.length) {
     // Nothing within the tolerance: widen the bound until the closest proposals exist, ranked by error.
-    let span = 0;
-    for (let c = 0; c < set.count; c++) span = Math.max(span, set.delay[c]!);
+    // No error can exceed half of (chain delay spread + target spread): with that bound every assignment is in.
+    let minDelay = Infinity;
+    let maxDelay = -Infinity;
+    for (let c = 0; c < set.count; c++) {
+      minDelay = Math.min(minDelay, set.delay[c]!);
+      maxDelay = Math.max(maxDelay, set.delay[c]!);
+    }
+    const targetSpread = Math.max(...paths.map((p) => p.target)) - Math.min(...paths.map((p) => p.target));
+    const widest = (maxDelay - minDelay + targetSpread) / 2 + EPS;
     let bound = Math.max(2 * tol, 0.5);
     for (;;) {
-      if (set.bucketWidthPs < bound) set = buildChains(problem, start, bound);
+      bound = Math.min(bound, widest + tol);
+      if (set.bucketWidthPs < bound / 4) set = buildChains(problem, start, bound);
       found = bestWithin(problem, set, paths, bound, true, budget);
-      if (found.length || bound > span * 4 + 1 || budget.nodes > budget.max) break;
+      if (found.length || bound >= widest || budget.nodes > budget.max) break;
       bound *= 2;
     }
   }
