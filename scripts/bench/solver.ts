@@ -65,9 +65,9 @@ for (const [label, sources] of [["1 source (interferer −35°)", [interferer]],
 
 console.log('Against brute force (every assignment enumerated), same problem, smaller shelves:');
 for (const [parts, elements, maxSegments] of [
-  [16, 4, 2],
   [18, 4, 2],
-  [14, 3, 3],
+  [20, 4, 2],
+  [16, 3, 3],
 ] as const) {
   const p = problem(parts, elements, maxSegments, [interferer]);
   const t0 = performance.now();

@@ -243,7 +243,11 @@ interface ChainSet {
   nonEmpty: number[][];
 }
 
-function buildChains(problem: SolverProblem, start: ConnectorEnd | null, bucketWidthPs: number): ChainSet {
+/**
+ * Every valid chain of up to maxSegments parts. With `tripleWindows` (sorted disjoint [lo, hi] pairs, flat), chains
+ * of three parts are only made when their delay lies in one of the windows (see solveCables).
+ */
+function buildChains(problem: SolverProblem, start: ConnectorEnd | null, bucketWidthPs: number, tripleWindows: number[] | null = null): ChainSet {
   const { parts, maxSegments } = problem;
   const maxChains = problem.maxChains ?? DEFAULT_MAX_CHAINS;
   const byKey = new Map<string, EndClass>();
@@ -258,6 +262,8 @@ function buildChains(problem: SolverProblem, start: ConnectorEnd | null, bucketW
     c.parts.push(i);
   });
   const classes = [...byKey.values()];
+  // Members by delay (then index): any fixed order makes each set once; this one lets windows be searched.
+  for (const c of classes) c.parts.sort((x, y) => parts[x]!.delayPs - parts[y]!.delayPs || x - y);
   const end = problem.pathEnd ?? null;
 
   // Class multisets (non-decreasing class indices) of 1..maxSegments members that have a mating order.
@@ -286,8 +292,53 @@ function buildChains(problem: SolverProblem, start: ConnectorEnd | null, bucketW
     for (let i = 0; i < k; i++) r = (r * (n - i)) / (i + 1);
     return Math.round(r);
   };
+  const partDelay = parts.map((p) => p.delayPs);
+  const partLength = parts.map((p) => p.lengthMm);
+  const sameAsOf = (plan: { order: ClassOrder }) =>
+    plan.order.map((o, j) => {
+      let last = -1;
+      for (let i = 0; i < j; i++) if (plan.order[i]!.cls === o.cls) last = i;
+      return last;
+    });
+  /** First index of `sorted` (ascending) whose value is ≥ x. */
+  const lowerBound = (sorted: Float64Array, x: number) => {
+    let lo = 0;
+    let hi = sorted.length;
+    while (lo < hi) {
+      const mid = (lo + hi) >> 1;
+      if (sorted[mid]! < x) lo = mid + 1;
+      else hi = mid;
+    }
+    return lo;
+  };
+  const windowHighs = Float64Array.from({ length: (tripleWindows?.length ?? 0) / 2 }, (_, w) => tripleWindows![2 * w + 1]!);
+  /** The three-part chains of a plan whose delay lies in a window: visit(a, b, c part indices, delay). */
+  const windowedTriples = (plan: { order: ClassOrder }, visit: (pa: number, pb: number, pc: number, delay: number) => void) => {
+    const [m0, m1, m2] = plan.order.map((o) => classes[o.cls]!.parts);
+    const sameAs = sameAsOf(plan);
+    const d2 = Float64Array.from(m2!, (p) => partDelay[p]!);
+    for (let a = 0; a < m0!.length; a++) {
+      for (let b = sameAs[1] === 0 ? a + 1 : 0; b < m1!.length; b++) {
+        const dAB = partDelay[m0![a]!]! + partDelay[m1![b]!]!;
+        const cStart = sameAs[2] === 0 ? a + 1 : sameAs[2] === 1 ? b + 1 : 0;
+        if (cStart >= d2.length) continue;
+        // Only the windows that the third part's delays can reach from here.
+        const reachLo = dAB + d2[cStart]! - EPS;
+        const reachHi = dAB + d2[d2.length - 1]! + EPS;
+        for (let w = 2 * lowerBound(windowHighs, reachLo); w < tripleWindows!.length && tripleWindows![w]! <= reachHi; w += 2) {
+          const from = Math.max(cStart, lowerBound(d2, tripleWindows![w]! - dAB - EPS));
+          const to = lowerBound(d2, tripleWindows![w + 1]! - dAB + EPS);
+          for (let c = from; c < to; c++) visit(m0![a]!, m1![b]!, m2![c]!, dAB + d2[c]!);
+        }
+      }
+    }
+  };
   let total = 0;
   for (const plan of plans) {
+    if (tripleWindows && plan.order.length === 3) {
+      windowedTriples(plan, () => total++);
+      continue;
+    }
     const counts = new Map<number, number>();
     for (const c of plan.multiset) counts.set(c, (counts.get(c) ?? 0) + 1);
     let n = 1;
@@ -316,9 +367,6 @@ function buildChains(problem: SolverProblem, start: ConnectorEnd | null, bucketW
     buckets: 0,
     nonEmpty: [],
   };
-  const partDelay = parts.map((p) => p.delayPs);
-  const partLength = parts.map((p) => p.lengthMm);
-
   // Whether a part is stored b-end first relative to its class's canonical (a, b): the plan's turn is then inverted.
   const storedBFirst = new Uint8Array(parts.length);
   for (const c of classes) for (const p of c.parts) storedBFirst[p] = endKey(parts[p]!.ends[0]) !== endKey(c.a) ? 1 : 0;
@@ -341,12 +389,17 @@ function buildChains(problem: SolverProblem, start: ConnectorEnd | null, bucketW
     const k = plan.order.length;
     const members = plan.order.map((o) => classes[o.cls]!.parts);
     const turns = plan.order.map((o) => o.reversed);
-    const sameAs = plan.order.map((o, j) => {
-      let last = -1;
-      for (let i = 0; i < j; i++) if (plan.order[i]!.cls === o.cls) last = i;
-      return last;
-    });
+    const sameAs = sameAsOf(plan);
     const picks: number[] = new Array(k);
+    if (tripleWindows && k === 3) {
+      windowedTriples(plan, (pa, pb, pc, delay) => {
+        picks[0] = pa;
+        picks[1] = pb;
+        picks[2] = pc;
+        push(3, delay, partLength[pa]! + partLength[pb]! + partLength[pc]!, picks, turns);
+      });
+      continue;
+    }
     const idx = new Int32Array(k);
     if (k <= 3) {
       const [m0, m1, m2] = members;
@@ -721,8 +774,8 @@ function search(problem: SolverProblem, set: ChainSet, paths: PathSpec[], scorin
  * cheap to search and give a good first answer), then, for loss or length, by one search without a segment
  * budget that the first answers prune.
  */
-function bestWithin(problem: SolverProblem, set: ChainSet, paths: PathSpec[], bound: number, byError: boolean, budget: { nodes: number; max: number }): Found[] {
-  const most = paths.length * problem.maxSegments;
+function bestWithin(problem: SolverProblem, set: ChainSet, paths: PathSpec[], bound: number, byError: boolean, budget: { nodes: number; max: number }, maxBudget = Infinity): Found[] {
+  const most = Math.min(paths.length * problem.maxSegments, maxBudget);
   // With several sources: each one's best score alone (its parts free of the others) bounds what it needs
   // together with them; a source with no answer alone has none together either.
   const sources = [...new Set(paths.map((p) => p.source))];
@@ -870,6 +923,52 @@ function limitsOf(problem: SolverProblem, set: ChainSet, paths: PathSpec[], clos
   return limits;
 }
 
+/** Sorted, merged [lo, hi] intervals (flat pairs). */
+function mergeIntervals(intervals: [number, number][]): [number, number][] {
+  intervals.sort((a, b) => a[0] - b[0]);
+  const out: [number, number][] = [];
+  for (const [lo, hi] of intervals) {
+    const last = out[out.length - 1];
+    if (last && lo <= last[1]) last[1] = Math.max(last[1], hi);
+    else out.push([lo, hi]);
+  }
+  return out;
+}
+
+function intersectIntervals(a: [number, number][], b: [number, number][]): [number, number][] {
+  const out: [number, number][] = [];
+  let i = 0;
+  let j = 0;
+  while (i < a.length && j < b.length) {
+    const lo = Math.max(a[i]![0], b[j]![0]);
+    const hi = Math.min(a[i]![1], b[j]![1]);
+    if (lo <= hi) out.push([lo, hi]);
+    if (a[i]![1] < b[j]![1]) i++;
+    else j++;
+  }
+  return out;
+}
+
+/**
+ * Delays a three-part chain may have in an answer whose other paths are all single parts (one source): on path i,
+ * for every other input j some single part x must keep |(d − T_i) − (x − T_j)| ≤ 2·bound. The union over i.
+ */
+function tripleWindowsFor(paths: PathSpec[], singleDelays: number[], bound: number): number[] {
+  const all: [number, number][] = [];
+  for (const [i, pi] of paths.entries()) {
+    let allowed: [number, number][] | null = null;
+    for (const [j, pj] of paths.entries()) {
+      if (j === i) continue;
+      const shift = pi.target - pj.target;
+      const around = mergeIntervals(singleDelays.map((x) => [x + shift - 2 * bound, x + shift + 2 * bound] as [number, number]));
+      allowed = allowed === null ? around : intersectIntervals(allowed, around);
+      if (!allowed.length) break;
+    }
+    if (allowed) all.push(...allowed);
+  }
+  return mergeIntervals(all).flat();
+}
+
 /** Find the best proposals for `problem`. Throws SolverLimitError when its bounds would be too large to search. */
 export function solveCables(problem: SolverProblem): SolverAnswer {
   const shared = problem.shared ?? [];
@@ -883,8 +982,29 @@ export function solveCables(problem: SolverProblem): SolverAnswer {
   const budget = { nodes: 0, max: problem.maxNodes ?? DEFAULT_MAX_NODES };
 
   // Buckets of about twice the tolerance: a window of the search spans a few of them.
-  let set = buildChains(problem, start, Math.max(2 * tol, 0.05));
-  let found = problem.parts.length >= paths.length ? bestWithin(problem, set, paths, tol, false, budget) : [];
+  const width = Math.max(2 * tol, 0.05);
+  let set: ChainSet | null = null;
+  let found: Found[] = [];
+  // (Below about 40 parts making every chain is cheap, and the detour would only add work.)
+  if (problem.parts.length >= Math.max(paths.length, 40) && problem.prefer === 'fewest-segments' && problem.maxSegments === 3 && problem.sources.length === 1) {
+    // Most of the work is making every three-part chain. With the fewest segments wanted, first look at total
+    // budgets up to two more segments than paths: there a three-part chain can only sit beside single parts on
+    // every other path, so only three-part chains whose delay fits some single part's window on every other
+    // input are made. When that already gives `limit` proposals, they are the best: anything else has more
+    // segments. Otherwise all chains are made and the search goes on.
+    const singles = buildChains({ ...problem, maxSegments: 1 }, start, width);
+    const windows = tripleWindowsFor(paths, Array.from(singles.delay.subarray(0, singles.count)), tol);
+    const lazy = buildChains(problem, start, width, windows);
+    const within = bestWithin(problem, lazy, paths, tol, false, budget, paths.length + 2);
+    if (within.length >= problem.limit) {
+      set = lazy;
+      found = within;
+    }
+  }
+  if (!set) {
+    set = buildChains(problem, start, width);
+    found = problem.parts.length >= paths.length ? bestWithin(problem, set, paths, tol, false, budget) : [];
+  }
   const feasible = found.length > 0;
   if (!feasible && set.count > 0 && problem.parts.length >= paths.length) {
     // Nothing within the tolerance: widen the bound until the closest proposals exist, ranked by error.

@@ -174,7 +174,47 @@ const problemArb = fc
   // Brute force must finish: at most 6 paths' worth of parts.
   .filter((p) => p.elements * p.sources.length <= p.parts.length);
 
+/** One source, chains of up to three parts: the solver's path that makes three-part chains only where they can fit. */
+const threeSegmentArb = fc
+  .record({
+    parts: fc.array(partArb, { minLength: 2, maxLength: 6 }),
+    elements: fc.integer({ min: 2, max: 3 }),
+    tolerancePs: fc.constantFrom(0.25, 1, 5, 20),
+    angle: fc.integer({ min: -60, max: 60 }),
+    limit: fc.integer({ min: 1, max: 3 }),
+  })
+  .map((r): SolverProblem => ({
+    elements: r.elements,
+    spacingMm: 30,
+    sources: [{ key: 's0', frequencyHz: 2e9, targetAngleDeg: r.angle }],
+    tolerancePs: r.tolerancePs,
+    maxSegments: 3,
+    prefer: 'fewest-segments',
+    limit: r.limit,
+    parts: r.parts.map((p, i) => ({ id: i + 1, tag: `P${i}`, kind: p.kind, ends: [p.a, p.b], delayPs: p.delayPs, delaySource: 'entered', lengthMm: p.lengthMm, loss: { db: p.lossDb } })),
+    pathStart: null,
+    pathEnd: null,
+  }))
+  .filter((p) => p.elements <= p.parts.length);
+
 describe('solveCables against brute force (fast-check)', () => {
+  it('with chains of up to three parts, agrees with the oracle on the best (segments, error)', () => {
+    fc.assert(
+      fc.property(threeSegmentArb, (problem) => {
+        const oracle = bruteForce(problem);
+        const answer = solveCables(problem);
+        if (oracle.assignments === 0) {
+          expect(answer.proposals).toEqual([]);
+          return;
+        }
+        expect(answer.feasible).toBe(oracle.feasible);
+        expect(answer.proposals[0]!.maxErrorPs).toBeCloseTo(oracle.errorPs, 6);
+        expect(answer.proposals[0]!.totals.segments).toBe(oracle.score);
+      }),
+      { numRuns: 300 },
+    );
+  });
+
   it('agrees on feasibility, and its first proposal has the oracle’s best (score, error)', () => {
     fc.assert(
       fc.property(problemArb, (problem) => {
