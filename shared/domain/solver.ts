@@ -923,6 +923,62 @@ function limitsOf(problem: SolverProblem, set: ChainSet, paths: PathSpec[], clos
   return limits;
 }
 
+/**
+ * The error of a complete assignment found greedily (an upper bound of the best error), or Infinity: for a few
+ * first-input chains spread over the delays, every further input takes the free chain nearest its target.
+ */
+function greedyErrorPs(set: ChainSet, paths: PathSpec[], nParts: number): number {
+  let best = Infinity;
+  const tries = Math.min(set.count, 16);
+  const used = new Uint8Array(nParts);
+  const partsOf = (c: number) => {
+    const out: number[] = [];
+    for (let j = 0; j < set.width; j++) {
+      const p = set.parts[c * set.width + j]!;
+      if (p < 0) break;
+      out.push(p);
+    }
+    return out;
+  };
+  for (let t = 0; t < tries; t++) {
+    used.fill(0);
+    let error = 0;
+    let complete = true;
+    let offset = 0;
+    for (const [i, path] of paths.entries()) {
+      const first = i === 0 || paths[i - 1]!.source !== path.source;
+      let pick = -1;
+      if (first) {
+        // The t-th of `tries` chains spread over the delay order.
+        pick = set.order[Math.floor((t * set.count) / tries)]!;
+        if (partsOf(pick).some((p) => used[p])) pick = -1;
+      }
+      if (pick < 0) {
+        let distance = Infinity;
+        const want = (first ? set.delay[set.order[Math.floor((t * set.count) / tries)]!]! - path.target : offset) + path.target;
+        for (let c = 0; c < set.count; c++) {
+          const d = Math.abs(set.delay[c]! - want);
+          if (d < distance && !partsOf(c).some((p) => used[p])) {
+            distance = d;
+            pick = c;
+          }
+        }
+      }
+      if (pick < 0) {
+        complete = false;
+        break;
+      }
+      for (const p of partsOf(pick)) used[p] = 1;
+      const u = set.delay[pick]! - path.target;
+      if (first) offset = u;
+      // Errors about the first input's offset: at most twice the centred error, so still an upper bound.
+      error = Math.max(error, Math.abs(u - offset));
+    }
+    if (complete) best = Math.min(best, error);
+  }
+  return best;
+}
+
 /** Sorted, merged [lo, hi] intervals (flat pairs). */
 function mergeIntervals(intervals: [number, number][]): [number, number][] {
   intervals.sort((a, b) => a[0] - b[0]);
@@ -1017,7 +1073,8 @@ export function solveCables(problem: SolverProblem): SolverAnswer {
     }
     const targetSpread = Math.max(...paths.map((p) => p.target)) - Math.min(...paths.map((p) => p.target));
     const widest = (maxDelay - minDelay + targetSpread) / 2 + EPS;
-    let bound = Math.max(2 * tol, 0.5);
+    // Start from the error of some complete assignment (a greedy one), so one search usually suffices.
+    let bound = Math.max(2 * tol, Math.min(greedyErrorPs(set, paths, problem.parts.length), widest));
     for (;;) {
       bound = Math.min(bound, widest + tol);
       if (set.bucketWidthPs < bound / 4) set = buildChains(problem, start, bound);
