@@ -20,9 +20,12 @@
  *    has no chain at all in its window. Parts are never used twice in one proposal. Candidates are tried best
  *    score first, and a branch is cut when even the best completion cannot beat the worst of the best `limit`
  *    proposals found.
- * 3. With the tolerance as bound, it finds the best proposals by preference (then by error). When none meets the
- *    tolerance, the bound doubles until proposals exist; these are then the closest ones, ranked by error, and
- *    the answer says what limits them.
+ * 3. With the tolerance as bound, it finds the best proposals by preference (then by error), growing the total
+ *    segment budget from one segment per path. With one source and the fewest segments wanted, three-part chains
+ *    are first made only where they can sit beside single parts (the only place they fit within two segments more
+ *    than paths), found from sorted delays by binary search; every chain is made only when that is not enough.
+ * 4. When none meets the tolerance, the bound starts at a greedy assignment's error (and doubles if needed);
+ *    the proposals are then the closest ones, ranked by error, and the answer says what limits them.
  */
 import { mates, matingWarning, describeEnd, type ConnectorEnd } from './connectors.js';
 import { SPEED_OF_LIGHT_M_PER_S as C } from './constants.js';
