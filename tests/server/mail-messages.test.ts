@@ -86,7 +86,9 @@ describe('booking confirmed', () => {
     const [mail, ...more] = await delivered('researcher@lab.test');
     expect(more).toHaveLength(0);
     expect(mail!.subject).toMatch(/^Booked: SA-1 \+ SG-1, /);
-    expect(mail!.subject).toContain(`${labClock(startsAt)}–${labClock(endsAt)} (Europe/Berlin, UTC+1)`);
+    // Europe/Berlin is UTC+1 in winter and UTC+2 in summer (EU Directive 2000/84/EC); the slot is 3 days from now.
+    const offsetHours = Math.round((Date.parse(new Date(startsAt).toLocaleString('en-US', { timeZone: ZONE })) - Date.parse(new Date(startsAt).toLocaleString('en-US', { timeZone: 'UTC' }))) / 3_600_000);
+    expect(mail!.subject).toContain(`${labClock(startsAt)}–${labClock(endsAt)} (Europe/Berlin, UTC+${offsetHours})`);
     expect(mail!.text).toContain('Hello Tobiah Renwick,');
     expect(mail!.text).toContain('SG-1 (Signal generator, 9 kHz to 20 GHz (KV-SG20))');
     expect(mail!.text).toContain(`Open the booking: ${PUBLIC_URL}/bookings/${id}`);
