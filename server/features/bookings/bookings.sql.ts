@@ -1,8 +1,9 @@
 // The SQL that turns bookings into the API's JSON. PostgreSQL builds the JSON itself, so the calendar's
 // range read never materialises model instances in Node (see the README's performance section).
 import { MAX_BOOKING_DAYS } from '../../../shared/schemas/bookings.js';
+import { isoUtcSql } from '../../lib/sql.js';
 
-const iso = (column: string) => `to_char(${column} AT TIME ZONE 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS.MS"Z"')`;
+const iso = isoUtcSql;
 
 const instrumentJson = `json_build_object('id', i.id, 'tag', i.tag, 'name', i.name, 'kind', i.kind)`;
 const ownerJson = `json_build_object('id', u.id, 'name', u.name)`;

@@ -5,9 +5,10 @@ import { hasRole } from '../../../shared/domain/roles.js';
 import { AppError, forbidden, notFound } from '../../lib/errors.js';
 import { queueWaitlistOffer, type BookingMailLab } from './booking.mail.js';
 import { BookingModel } from './booking.model.js';
+import { isoUtcSql } from '../../lib/sql.js';
 
 const db = () => BookingModel.sequelize!;
-const iso = (column: string) => `to_char(${column} AT TIME ZONE 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS.MS"Z"')`;
+const iso = isoUtcSql;
 
 const entryJson = `json_build_object(
   'id', w.id,

@@ -3,9 +3,10 @@ import type { CapturedMail, CapturedMailSummary, MailboxQuery, OutboxEntry, Outb
 import { notFound } from '../../lib/errors.js';
 import { OutboxModel } from './mail.model.js';
 import { outboxQueued } from './outbox.signal.js';
+import { isoUtcSql } from '../../lib/sql.js';
 
 const db = () => OutboxModel.sequelize!;
-const iso = (column: string) => `to_char(${column} AT TIME ZONE 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS.MS"Z"')`;
+const iso = isoUtcSql;
 
 const summaryColumns = `m.id::int AS id, array_to_string(m.envelope_to, ', ') AS "to", m.envelope_to AS "toAddresses",
   m.to_header AS "toHeader", m.from_header AS "from", m.subject, ${iso('m.received_at')} AS "receivedAt", m.message_id AS "messageId",

@@ -10,9 +10,10 @@ import { AppError, forbidden, notFound } from '../../lib/errors.js';
 import { analyse, resolveSegments } from '../analysis/analysis.service.js';
 import { partsByIds } from '../parts/parts.service.js';
 import { SetupModel } from './setup.model.js';
+import { isoUtcSql } from '../../lib/sql.js';
 
 const db = () => SetupModel.sequelize!;
-const iso = (column: string) => `to_char(${column} AT TIME ZONE 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS.MS"Z"')`;
+const iso = isoUtcSql;
 
 /** The booking a setup belongs to must exist; only its owner or a manager records setups for it. */
 async function bookingFor(user: SessionUser, bookingId: number): Promise<{ id: number; ownerId: number }> {
