@@ -634,9 +634,24 @@ function search(problem: SolverProblem, set: ChainSet, paths: PathSpec[], scorin
     for (let s = 0; s < S; s++) if (uMax[s]! > uMin[s]!) e = Math.max(e, (uMax[s]! - uMin[s]!) / 2);
     return e;
   };
-  const seen = new Set(best.map((f) => f.chains.join(',')));
+  /**
+   * One key for wirings that differ only by swapping chains of equal delay between a source's inputs: the same
+   * chains per source, and the same delay on every path. They are the same proposal to the bench.
+   */
+  const wiringKey = (chains: ArrayLike<number>) => {
+    const perSource = new Map<number, number[]>();
+    const delays: string[] = [];
+    for (let i = 0; i < paths.length; i++) {
+      const list = perSource.get(paths[i]!.source) ?? [];
+      list.push(chains[i]!);
+      perSource.set(paths[i]!.source, list);
+      delays.push(set.delay[chains[i]!]!.toFixed(6));
+    }
+    return `${[...perSource.values()].map((l) => [...l].sort((a, b) => a - b).join(',')).join('|')}#${delays.join(',')}`;
+  };
+  const seen = new Set(best.map((f) => wiringKey(f.chains)));
   const record = (scoreSum: number) => {
-    const key = chosen.join(',');
+    const key = wiringKey(chosen);
     if (seen.has(key)) return;
     const found: Found = { score: scoreSum, error: errorNow(), chains: Array.from(chosen) };
     let i = best.length;
@@ -644,7 +659,7 @@ function search(problem: SolverProblem, set: ChainSet, paths: PathSpec[], scorin
     if (i >= limit) return;
     best.splice(i, 0, found);
     seen.add(key);
-    if (best.length > limit) seen.delete(best.pop()!.chains.join(','));
+    if (best.length > limit) seen.delete(wiringKey(best.pop()!.chains));
   };
   const takes = (c: number) => {
     for (let j = 0; j < set.width; j++) {
